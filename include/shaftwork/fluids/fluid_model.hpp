@@ -1,0 +1,49 @@
+// shaftwork/fluids/fluid_model.hpp — the one narrow interface every property model serves.
+//
+// A model answers a state from (p, T), (p, h) or (p, s), all SI and per unit mass.
+// Models are immutable once built and safe to share between threads.
+// Failures throw shaftwork::Error: out_of_range for a state outside the model's
+// validity (the message names the model or species and its range), no_convergence
+// when an inverse solve misses its tolerance, bad_input for p <= 0 or non-finite input.
+#pragma once
+
+#include <optional>
+#include <string>
+
+#include "shaftwork/fluids/state.hpp"
+
+namespace shaftwork::fluids {
+
+class FluidModel {
+ public:
+  virtual ~FluidModel() = default;
+
+  // State at pressure p [Pa] and temperature T [K]. A model with two phases throws
+  // bad_input at exactly the saturation temperature: (p, Tsat) does not fix a state.
+  virtual State from_pt(double p, double T) const = 0;
+  // State at pressure p [Pa] and specific enthalpy h [J/kg]; T converges to 1e-10 relative.
+  virtual State from_ph(double p, double h) const = 0;
+  // State at pressure p [Pa] and specific entropy s [J/(kg K)]; T converges to 1e-10 relative.
+  virtual State from_ps(double p, double s) const = 0;
+
+  // The model's name as case files write it: "constant-cp", "nasa-polynomial",
+  // "iapws-if97", "incompressible".
+  virtual std::string model_name() const = 0;
+  // One line for `shaftwork fluids` and result headers, e.g. "N2 0.7808, O2 0.2095, ...".
+  virtual std::string description() const = 0;
+
+  // Validity ranges (K, Pa). Ideal gases have no upper pressure bound of their own.
+  virtual Range temperature_range() const = 0;
+  virtual Range pressure_range() const = 0;
+
+  // Specific gas constant R = R_u / M [J/(kg K)] when the model is an ideal gas
+  // (p v = R T exactly, h a function of T alone); empty otherwise. The machine
+  // layer uses it for the exact polytropic relations of ideal gases.
+  virtual std::optional<double> ideal_gas_constant() const { return std::nullopt; }
+
+  // True when density does not depend on state (incompressible liquid): the
+  // polytropic efficiency then equals the isentropic one.
+  virtual bool is_incompressible() const { return false; }
+};
+
+}  // namespace shaftwork::fluids
