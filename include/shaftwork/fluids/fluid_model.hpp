@@ -10,6 +10,8 @@
 #include <optional>
 #include <string>
 
+#include "shaftwork/error.hpp"
+
 #include "shaftwork/fluids/state.hpp"
 
 namespace shaftwork::fluids {
@@ -41,9 +43,23 @@ class FluidModel {
   // layer uses it for the exact polytropic relations of ideal gases.
   virtual std::optional<double> ideal_gas_constant() const { return std::nullopt; }
 
+  // Saturation temperature [K] at pressure p for a model with a liquid-vapour
+  // boundary; empty for single-phase models or above the critical pressure.
+  virtual std::optional<double> saturation_temperature(double /*p*/) const { return std::nullopt; }
+
+  // Wet state at pressure p [Pa] and vapour mass fraction `quality` in [0, 1].
+  // Single-phase models throw not_available.
+  virtual State from_p_quality(double p, double quality) const;
+
   // True when density does not depend on state (incompressible liquid): the
   // polytropic efficiency then equals the isentropic one.
   virtual bool is_incompressible() const { return false; }
 };
+
+inline State FluidModel::from_p_quality(double /*p*/, double /*quality*/) const {
+  throw Error(ErrorKind::not_available,
+              "quality applies only to a fluid with a liquid and a vapour phase (iapws-if97); the " +
+                  model_name() + " model has one phase");
+}
 
 }  // namespace shaftwork::fluids
