@@ -1,0 +1,93 @@
+#include "shaftwork/machines/polytropic.hpp"
+
+#include <cmath>
+
+#include <fmt/format.h>
+
+#include "shaftwork/error.hpp"
+#include "shaftwork/numerics/root.hpp"
+
+namespace shaftwork::machines {
+namespace {
+
+// Integrates dh/d(ln p) = p v(p, h) * factor from (p1, h1) to p2 with n RK4 steps,
+// where factor is 1/eta_p in compression and eta_p in expansion.
+double integrate_path(const fluids::FluidModel& fluid, double p1, double h1, double p2,
+                      double factor, int steps) {
+  const double x1 = std::log(p1);
+  const double dx = (std::log(p2) - x1) / steps;
+  auto slope = [&](double x, double h) {
+    const double p = std::exp(x);
+    const fluids::State st = fluid.from_ph(p, h);
+    return p / st.density * factor;
+  };
+  double h = h1;
+  for (int i = 0; i < steps; ++i) {
+    const double x = x1 + i * dx;
+    const double k1 = slope(x, h);
+    const double k2 = slope(x + 0.5 * dx, h + 0.5 * dx * k1);
+    const double k3 = slope(x + 0.5 * dx, h + 0.5 * dx * k2);
+    const double k4 = slope(x + dx, h + dx * k3);
+    h += dx / 6.0 * (k1 + 2 * k2 + 2 * k3 + k4);
+  }
+  return h;
+}
+
+double stepwise_outlet_enthalpy(const fluids::FluidModel& fluid, const fluids::State& inlet,
+                                double p2, double eta_p) {
+  const bool compression = p2 > inlet.pressure;
+  const double factor = compression ? 1.0 / eta_p : eta_p;
+  double previous = integrate_path(fluid, inlet.pressure, inlet.enthalpy, p2, factor, 8);
+  for (int steps = 16; steps <= 4096; steps *= 2) {
+    const double h = integrate_path(fluid, inlet.pressure, inlet.enthalpy, p2, factor, steps);
+    const double rise = std::fabs(h - inlet.enthalpy);
+    if (std::fabs(h - previous) <= 1e-10 * rise) return h;
+    previous = h;
+  }
+  throw Error(ErrorKind::no_convergence,
+              "polytropic path: the stepwise integration did not converge to 1e-10 within 4096 steps");
+}
+
+}  // namespace
+
+double polytropic_outlet_enthalpy(const fluids::FluidModel& fluid, const fluids::State& inlet,
+                                  double p2, double eta_p) {
+  const double p1 = inlet.pressure;
+  if (fluid.is_incompressible()) {
+    // eta_p = eta_s: h2 = h1 + v dp / eta (compression) or h1 + eta v dp (expansion).
+    const double vdp = (p2 - p1) / inlet.density;
+    return inlet.enthalpy + (p2 > p1 ? vdp / eta_p : vdp * eta_p);
+  }
+  if (const auto R = fluid.ideal_gas_constant()) {
+    const double lnr = std::log(p2 / p1);
+    const double ds = p2 > p1 ? *R * (1.0 / eta_p - 1.0) * lnr : *R * (1.0 - eta_p) * -lnr;
+    return fluid.from_ps(p2, inlet.entropy + ds).enthalpy;
+  }
+  return stepwise_outlet_enthalpy(fluid, inlet, p2, eta_p);
+}
+
+double polytropic_efficiency(const fluids::FluidModel& fluid, const fluids::State& inlet,
+                             const fluids::State& outlet) {
+  const double p1 = inlet.pressure;
+  const double p2 = outlet.pressure;
+  const bool compression = p2 > p1;
+  if (fluid.is_incompressible()) {
+    const double vdp = (p2 - p1) / inlet.density;
+    const double dh = outlet.enthalpy - inlet.enthalpy;
+    return compression ? vdp / dh : dh / vdp;
+  }
+  if (const auto R = fluid.ideal_gas_constant()) {
+    const double ds = outlet.entropy - inlet.entropy;
+    const double lnr = std::log(p2 / p1);
+    return compression ? 1.0 / (1.0 + ds / (*R * lnr)) : 1.0 - ds / (*R * -lnr);
+  }
+  // General model: find eta_p whose path ends at the outlet enthalpy.
+  auto miss = [&](double eta) {
+    return stepwise_outlet_enthalpy(fluid, inlet, p2, eta) - outlet.enthalpy;
+  };
+  numerics::RootOptions options;
+  options.relative_tolerance = 1e-11;
+  return numerics::find_root(miss, 0.02, 1.0, "polytropic efficiency", options).x;
+}
+
+}  // namespace shaftwork::machines
