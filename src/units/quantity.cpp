@@ -210,6 +210,7 @@ struct Subject {
 
   std::string quoted() const {
     if (has_text) return fmt::format("\"{}\"", text);
+    if (unit.empty()) return fmt::format("\"{}\"", number);
     return fmt::format("\"{} {}\"", number, unit);
   }
 };

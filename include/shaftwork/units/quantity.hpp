@@ -72,6 +72,14 @@ inline constexpr double kStandardAtmosphere = 101325.0;  // Pa, exact (ISO 2533)
 
 // Parses "<number> <unit>" (one or more spaces; "84.5 %", "21 degC", "5e3 kg/h")
 // as a quantity of dimension `expected` and returns its SI value.
+// Syntax: leading and trailing whitespace is ignored; the number is read with
+// std::from_chars (locale-independent: "." is the decimal point, an exponent is
+// allowed, a leading "+" is accepted); everything after the whitespace that follows
+// the number is the unit symbol, so "1005 J/(kg K)" works. Only "%" may follow the
+// number without a space ("84.5%"). A fraction may also be a bare number ("0.845");
+// any other dimension needs a unit ("5" alone is refused: missing unit).
+// Gauge units add context.barometric_pressure, or kStandardAtmosphere with
+// notes.used_default_barometer set when the context has none.
 // Throws shaftwork::Error (bad_input) naming the text and the problem when:
 // the number or unit is missing or malformed, the unit is unknown, the unit is of
 // another dimension, the result is not finite, an absolute pressure is <= 0, a
@@ -82,12 +90,15 @@ double parse(std::string_view text, Dimension expected, const ParseContext& cont
              ParseNotes& notes);
 
 // Converts a plain number given with a separate unit symbol (a CSV column
-// "inlet.pressure [barg]") to SI, with the same checks as parse().
+// "inlet.pressure [barg]") to SI, with the same checks as parse(). Messages quote
+// the pair as "<number> <unit>". An empty unit is accepted for a fraction only.
 double to_si(double number, std::string_view unit, Dimension expected,
              const ParseContext& context, ParseNotes& notes);
 
 // Converts an SI value to the given unit for output. For gauge units the
-// barometer is subtracted. Throws bad_input for an unknown or mismatched unit.
+// barometer is subtracted; temperature scales subtract their offset. An empty unit
+// is accepted for a fraction only. Throws bad_input for an unknown or mismatched
+// unit. Every unit round-trips: from_si(to_si(x, u), u) == x up to rounding.
 double from_si(double si_value, std::string_view unit, Dimension expected,
                double barometric_pressure = kStandardAtmosphere);
 
