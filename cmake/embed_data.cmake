@@ -1,5 +1,6 @@
 # Writes OUTPUT: a C++ source defining shaftwork::fluids::embedded_data(name),
 # which returns the text of each file in INPUTS (by file name) or an empty view.
+string(REPLACE "|" ";" INPUTS "${INPUTS}")
 set(body "")
 set(index "")
 foreach(path IN LISTS INPUTS)
