@@ -249,7 +249,8 @@ double Solver::solve_inlet_temperature(double p1,
 }
 
 double Solver::solve_pressure(bool inlet_side, double other, const std::function<double(double)>& residual) const {
-  const fluids::Range range = fluid_.pressure_range();
+  fluids::Range range = fluid_.pressure_range();
+  range.low = std::max(range.low, 1.0);  // Pa; a log-scale search needs a positive floor
   // The unknown pressure lies on the side of `other` that the machine demands.
   const bool unknown_is_higher = inlet_side != compresses(in_.machine);
   const double low = unknown_is_higher ? other * (1 + 1e-9) : range.low;

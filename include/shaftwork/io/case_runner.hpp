@@ -1,0 +1,29 @@
+// shaftwork/io/case_runner.hpp — read a case document and rate every case in it.
+//
+// A case that cannot be read or rated becomes an error outcome in its place; the
+// other cases are rated all the same.
+#pragma once
+
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include <nlohmann/json.hpp>
+
+#include "shaftwork/io/fluid_factory.hpp"
+#include "shaftwork/io/result_writer.hpp"
+
+namespace shaftwork::io {
+
+// Parses JSON text strictly: a duplicate key in any object is an error, since the
+// file would otherwise mean two things. Throws bad_input naming origin, line and column.
+nlohmann::json parse_json_strict(std::string_view text, const std::string& origin);
+
+// Rates one case object; never throws for a problem of the case itself.
+CaseOutcome rate_case(const nlohmann::json& case_object, size_t index, FluidFactory& fluids);
+
+// Rates every case of a document. Throws bad_input when it is not a case file.
+std::vector<CaseOutcome> rate_document(const nlohmann::json& document, const std::string& origin,
+                                       FluidFactory& fluids);
+
+}  // namespace shaftwork::io

@@ -1,0 +1,58 @@
+// shaftwork/io/fluid_factory.hpp — fluid models from names and JSON fluid objects.
+//
+// A fluid is a name from data/fluids.txt ("air", "water", ...) or an object
+// { "model": "constant-cp" | "nasa-polynomial" | "iapws-if97" | "incompressible", ... }
+// as the contract describes. Models are immutable; the factory hands out one shared
+// model per distinct definition, so a batch of a million cases builds air once.
+#pragma once
+
+#include <map>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include <nlohmann/json.hpp>
+
+#include "shaftwork/fluids/fluid_model.hpp"
+#include "shaftwork/fluids/nasa_polynomial.hpp"
+
+namespace shaftwork::io {
+
+struct NamedFluid {
+  std::string name;
+  nlohmann::json definition;  // the fluid object the name stands for
+  std::string note;           // the comment lines just above it in data/fluids.txt
+};
+
+// The named fluids of data/fluids.txt, in file order. Throws bad_input if the
+// embedded file is malformed (a build defect, caught by the tests).
+const std::vector<NamedFluid>& named_fluids();
+
+class FluidFactory {
+ public:
+  FluidFactory();
+
+  // Adds species from a NASA 9-coefficient file (the published format); they
+  // replace built-in species of the same name. Throws bad_input naming the line.
+  void add_species_file(const std::string& path);
+
+  // The model for a fluid name or object. `path` is the JSON path for messages
+  // ("fluid"); warnings (renormalised fractions) are appended to `warnings`.
+  std::shared_ptr<const fluids::FluidModel> make(const nlohmann::json& fluid, const std::string& path,
+                                                 std::vector<std::string>& warnings);
+
+  const fluids::SpeciesLibrary& species() const { return *species_; }
+
+ private:
+  std::shared_ptr<const fluids::FluidModel> build(const nlohmann::json& fluid, const std::string& path,
+                                                  std::vector<std::string>& warnings);
+
+  std::shared_ptr<fluids::SpeciesLibrary> species_;
+  struct Built {
+    std::shared_ptr<const fluids::FluidModel> model;
+    std::vector<std::string> warnings;
+  };
+  std::map<std::string, Built> cache_;  // by the definition's JSON text
+};
+
+}  // namespace shaftwork::io

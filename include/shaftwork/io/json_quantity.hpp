@@ -1,0 +1,25 @@
+// shaftwork/io/json_quantity.hpp — a case file's numbers and "<number> <unit>" strings, to SI.
+#pragma once
+
+#include <string>
+
+#include <nlohmann/json.hpp>
+
+#include "shaftwork/units/quantity.hpp"
+
+namespace shaftwork::io {
+
+// A quantity read from JSON: its SI value and the unit the user wrote ("" for a
+// plain number, which is SI by definition).
+struct ReadQuantity {
+  double si = 0;
+  std::string unit;
+};
+
+// Reads `value` (a JSON number in SI units or a string "<number> <unit>") as a
+// quantity of dimension `d`. Throws bad_input with `path` before the message:
+// 'outlet.pressure: "4.1 degC": a temperature unit where a pressure belongs'.
+ReadQuantity read_quantity(const nlohmann::json& value, units::Dimension d, const std::string& path,
+                           const units::ParseContext& context, units::ParseNotes& notes);
+
+}  // namespace shaftwork::io

@@ -1,0 +1,31 @@
+// The subcommands of shaftwork: each registers its options on a CLI11 subcommand
+// and, when chosen, runs and stores the process exit status in `exit_status`.
+#pragma once
+
+#include <CLI/CLI.hpp>
+
+namespace shaftwork::cli {
+
+// Exit statuses (the contract): every case rated; some case failed; the command
+// line or a whole file could not be used.
+inline constexpr int kExitOk = 0;
+inline constexpr int kExitCaseFailed = 1;
+inline constexpr int kExitUnusable = 2;
+
+struct Subcommand {
+  const char* name;
+  const char* summary;
+  void (*install)(CLI::App& sub, int& exit_status);
+};
+
+void install_rate(CLI::App& sub, int& exit_status);
+void install_state(CLI::App& sub, int& exit_status);
+void install_fluids(CLI::App& sub, int& exit_status);
+
+inline constexpr Subcommand kSubcommands[] = {
+    {"rate", "Rate every case in JSON case files (- reads standard input)", install_rate},
+    {"state", "Print the thermodynamic state of a fluid at a pressure and T, h or s", install_state},
+    {"fluids", "List the named fluids, species and property models with their ranges", install_fluids},
+};
+
+}  // namespace shaftwork::cli

@@ -1,0 +1,223 @@
+#include "shaftwork/io/fluid_factory.hpp"
+
+#include <fstream>
+#include <sstream>
+#include <string_view>
+
+#include <fmt/format.h>
+#include <fmt/ranges.h>
+
+#include "shaftwork/error.hpp"
+#include "shaftwork/fluids/constant_cp.hpp"
+#include "shaftwork/fluids/iapws_if97.hpp"
+#include "shaftwork/fluids/incompressible.hpp"
+#include "shaftwork/io/json_quantity.hpp"
+
+namespace shaftwork::fluids {
+std::string_view embedded_data(std::string_view name);  // generated from data/*.txt
+}
+
+namespace shaftwork::io {
+namespace {
+
+using nlohmann::json;
+
+[[noreturn]] void refuse(const std::string& message) { throw Error(ErrorKind::bad_input, message); }
+
+std::vector<NamedFluid> parse_named_fluids(std::string_view text) {
+  std::vector<NamedFluid> out;
+  std::string note;
+  std::istringstream in{std::string(text)};
+  std::string line;
+  int number = 0;
+  while (std::getline(in, line)) {
+    ++number;
+    if (line.empty()) {
+      note.clear();
+      continue;
+    }
+    if (line[0] == '#') {
+      const auto start = line.find_first_not_of("# ");
+      if (start != std::string::npos) note = fmt::format("{}{}{}", note, note.empty() ? "" : " ", line.substr(start));
+      continue;
+    }
+    const auto eq = line.find('=');
+    if (eq == std::string::npos) refuse(fmt::format("data/fluids.txt line {}: expected 'name = {{...}}'", number));
+    std::string name = line.substr(0, eq);
+    name.erase(name.find_last_not_of(' ') + 1);
+    try {
+      out.push_back({name, json::parse(line.substr(eq + 1)), note});
+    } catch (const json::exception& e) {
+      refuse(fmt::format("data/fluids.txt line {}: {}", number, e.what()));
+    }
+  }
+  return out;
+}
+
+// Warns of keys in `object` that are not in `known`.
+void warn_unknown_keys(const json& object, std::initializer_list<std::string_view> known, const std::string& path,
+                       std::vector<std::string>& warnings) {
+  for (const auto& [key, value] : object.items()) {
+    bool found = false;
+    for (std::string_view k : known) found = found || k == key;
+    if (!found) warnings.push_back(fmt::format("{}: unknown key \"{}\" ignored", path, key));
+  }
+}
+
+double read_number(const json& object, const char* key, units::Dimension d, const std::string& path) {
+  units::ParseNotes notes;
+  return read_quantity(object.at(key), d, path + "." + key, {}, notes).si;
+}
+
+std::shared_ptr<const fluids::FluidModel> make_constant_cp(const json& j, const std::string& path) {
+  fluids::ConstantCpInputs in;
+  if (j.contains("cp")) in.cp = read_number(j, "cp", units::Dimension::specific_heat, path);
+  if (j.contains("cv")) in.cv = read_number(j, "cv", units::Dimension::specific_heat, path);
+  if (j.contains("k")) in.k = read_number(j, "k", units::Dimension::fraction, path);
+  if (j.contains("R")) in.R = read_number(j, "R", units::Dimension::specific_heat, path);
+  if (j.contains("molar_mass")) in.molar_mass = read_number(j, "molar_mass", units::Dimension::molar_mass, path);
+  try {
+    return std::make_shared<fluids::ConstantCpGas>(in);
+  } catch (const Error& e) {
+    throw e.with_context(path);
+  }
+}
+
+std::shared_ptr<const fluids::FluidModel> make_nasa(const json& j, const std::string& path,
+                                                    const fluids::SpeciesLibrary& library,
+                                                    std::vector<std::string>& warnings) {
+  auto species_named = [&](const std::string& name, const std::string& where) {
+    const fluids::NasaSpecies* sp = library.find(name);
+    if (!sp) {
+      refuse(fmt::format("{}: unknown species \"{}\" (shaftwork fluids lists the species; a NASA "
+                         "9-coefficient file may add more with --species-file)",
+                         where, name));
+    }
+    return sp;
+  };
+  std::vector<fluids::Component> components;
+  fluids::CompositionBasis basis = fluids::CompositionBasis::mole;
+  if (j.contains("species") == j.contains("mixture")) {
+    refuse(fmt::format("{}: a nasa-polynomial fluid needs \"species\" or \"mixture\", one of them", path));
+  }
+  if (j.contains("species")) {
+    if (!j["species"].is_string()) refuse(fmt::format("{}.species: expected a species name", path));
+    components.push_back({species_named(j["species"].get<std::string>(), path + ".species"), 1.0});
+  } else {
+    const json& mix = j["mixture"];
+    if (!mix.is_object() || mix.empty()) {
+      refuse(fmt::format("{}.mixture: expected an object of species and fractions", path));
+    }
+    for (const auto& [name, value] : mix.items()) {
+      units::ParseNotes notes;
+      const double x = read_quantity(value, units::Dimension::fraction, path + ".mixture." + name, {}, notes).si;
+      components.push_back({species_named(name, path + ".mixture"), x});
+    }
+    if (j.contains("basis")) {
+      const json& b = j["basis"];
+      if (b == "mole") {
+        basis = fluids::CompositionBasis::mole;
+      } else if (b == "mass") {
+        basis = fluids::CompositionBasis::mass;
+      } else {
+        refuse(fmt::format("{}.basis: expected \"mole\" or \"mass\", got {}", path, b.dump()));
+      }
+    }
+  }
+  try {
+    auto gas = std::make_shared<fluids::NasaPolynomialGas>(components, basis);
+    if (gas->renormalised()) {
+      warnings.push_back(fmt::format("{}.mixture: the fractions add up to {:.6g}; scaled to sum to 1", path,
+                                     gas->given_sum()));
+    }
+    return gas;
+  } catch (const Error& e) {
+    throw e.with_context(path);
+  }
+}
+
+}  // namespace
+
+const std::vector<NamedFluid>& named_fluids() {
+  static const std::vector<NamedFluid> fluids = parse_named_fluids(fluids::embedded_data("fluids.txt"));
+  return fluids;
+}
+
+FluidFactory::FluidFactory()
+    : species_(std::make_shared<fluids::SpeciesLibrary>(fluids::SpeciesLibrary::built_in())) {}
+
+void FluidFactory::add_species_file(const std::string& path) {
+  std::ifstream file(path, std::ios::binary);
+  if (!file) refuse(fmt::format("{}: cannot read the species file", path));
+  std::ostringstream text;
+  text << file.rdbuf();
+  species_->merge(fluids::SpeciesLibrary::parse_nasa9(text.str(), path));
+  cache_.clear();  // definitions may now mean other species
+}
+
+std::shared_ptr<const fluids::FluidModel> FluidFactory::make(const json& fluid, const std::string& path,
+                                                             std::vector<std::string>& warnings) {
+  std::string key = fluid.dump();
+  if (auto it = cache_.find(key); it != cache_.end()) {
+    warnings.insert(warnings.end(), it->second.warnings.begin(), it->second.warnings.end());
+    return it->second.model;
+  }
+  std::vector<std::string> own;
+  auto model = build(fluid, path, own);
+  warnings.insert(warnings.end(), own.begin(), own.end());
+  cache_.emplace(std::move(key), Built{model, std::move(own)});
+  return model;
+}
+
+std::shared_ptr<const fluids::FluidModel> FluidFactory::build(const json& fluid, const std::string& path,
+                                                              std::vector<std::string>& warnings) {
+  if (fluid.is_string()) {
+    const std::string& name = fluid.get_ref<const std::string&>();
+    for (const NamedFluid& named : named_fluids()) {
+      if (named.name == name) return build(named.definition, fmt::format("{} (\"{}\")", path, name), warnings);
+    }
+    std::vector<std::string> known;
+    for (const NamedFluid& named : named_fluids()) known.push_back(named.name);
+    refuse(fmt::format("{}: unknown fluid \"{}\"; named fluids are: {}", path, name, fmt::join(known, ", ")));
+  }
+  if (!fluid.is_object()) {
+    refuse(fmt::format("{}: expected a fluid name or an object with a \"model\", got {}", path, fluid.type_name()));
+  }
+  if (!fluid.contains("model") || !fluid["model"].is_string()) {
+    refuse(fmt::format("{}: a fluid object needs \"model\": one of constant-cp, nasa-polynomial, "
+                       "iapws-if97, incompressible",
+                       path));
+  }
+  const std::string model = fluid["model"].get<std::string>();
+  if (model == "constant-cp") {
+    warn_unknown_keys(fluid, {"model", "cp", "cv", "k", "R", "molar_mass"}, path, warnings);
+    return make_constant_cp(fluid, path);
+  }
+  if (model == "nasa-polynomial") {
+    warn_unknown_keys(fluid, {"model", "species", "mixture", "basis"}, path, warnings);
+    return make_nasa(fluid, path, *species_, warnings);
+  }
+  if (model == "iapws-if97") {
+    warn_unknown_keys(fluid, {"model"}, path, warnings);
+    static const auto water = std::make_shared<const fluids::IapwsIf97>();
+    return water;
+  }
+  if (model == "incompressible") {
+    warn_unknown_keys(fluid, {"model", "density", "cp"}, path, warnings);
+    if (!fluid.contains("density") || !fluid.contains("cp")) {
+      refuse(fmt::format("{}: an incompressible fluid needs \"density\" and \"cp\"", path));
+    }
+    const double rho = read_number(fluid, "density", units::Dimension::density, path);
+    const double cp = read_number(fluid, "cp", units::Dimension::specific_heat, path);
+    try {
+      return std::make_shared<fluids::IncompressibleLiquid>(rho, cp);
+    } catch (const Error& e) {
+      throw e.with_context(path);
+    }
+  }
+  refuse(fmt::format("{}.model: unknown model \"{}\"; models are constant-cp, nasa-polynomial, "
+                     "iapws-if97, incompressible",
+                     path, model));
+}
+
+}  // namespace shaftwork::io
