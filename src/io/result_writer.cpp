@@ -242,12 +242,14 @@ void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, Un
       std::string text;
       if (!unit_given.empty() && unit_given != "%") {
         const double baro = in ? in->barometric_pressure : units::kStandardAtmosphere;
-        text = format_value(units::from_si(si, unit_given, d, baro)) + " " + unit_given;
+        text = fmt::format("{:.6g} {}", units::from_si(si, unit_given, d, baro), unit_given);
       } else {
         const char* unit = display_unit(d, system);
         text = format_value(in_display(si, d, system)) + (*unit ? std::string(" ") + unit : "");
       }
-      out << fmt::format("  {:<28}{:<24}{}\n", label, text, mark);
+      std::string row = fmt::format("  {:<28}{:<24}{}", label, text, mark);
+      row.erase(row.find_last_not_of(' ') + 1);
+      out << row << '\n';
     };
     auto written = [&](Quantity q) -> std::string {
       if (!in) return "";
@@ -270,8 +272,15 @@ void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, Un
          solved("outlet.temperature") ? "solved" : (outlet_t_given ? "given" : "from the given outlet"),
          given_unit("outlet.temperature", Quantity::outlet_temperature));
     if (r.outlet.quality) line("outlet quality", *r.outlet.quality, Dimension::fraction, "", "");
-    line("mass flow", r.mass_flow, Dimension::mass_flow, solved("mass_flow") ? "solved" : "given",
-         given_unit("mass_flow", Quantity::flow));
+    const char* flow_mark = "given";
+    if (solved("mass_flow")) {
+      flow_mark = "solved";
+    } else if (in && in->rating.flow && in->rating.flow->kind == machines::Flow::Kind::actual_volume) {
+      flow_mark = "from the given volume flow";
+    } else if (in && in->rating.flow && in->rating.flow->kind == machines::Flow::Kind::molar) {
+      flow_mark = "from the given standard flow";
+    }
+    line("mass flow", r.mass_flow, Dimension::mass_flow, flow_mark, given_unit("mass_flow", Quantity::flow));
     line("power (shaft)", r.power, Dimension::power, mark_for("power"), given_unit("power", Quantity::power));
     const bool eta_solved = solved("efficiency");
     const bool polytropic_given =

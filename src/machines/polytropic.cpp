@@ -10,26 +10,42 @@
 namespace shaftwork::machines {
 namespace {
 
-// Integrates dh/d(ln p) = p v(p, h) * factor from (p1, h1) to p2 with n RK4 steps,
-// where factor is 1/eta_p in compression and eta_p in expansion.
-double integrate_path(const fluids::FluidModel& fluid, double p1, double h1, double p2,
-                      double factor, int steps) {
+// dh/d(ln p) = p v(p, h) * factor along the path, where factor is 1/eta_p in
+// compression and eta_p in expansion; `wet` tells on which side of the saturation
+// line the point lies, since v(p, h) has a kink there.
+struct Slope {
+  double value;
+  bool wet;
+};
+
+Slope path_slope(const fluids::FluidModel& fluid, double x, double h, double factor) {
+  const double p = std::exp(x);
+  const fluids::State st = fluid.from_ph(p, h);
+  return {p / st.density * factor, st.is_wet()};
+}
+
+// One classical RK4 step from (x, h) over dx. A step across the saturation line
+// is halved, recursively, so that the kink sits in a step too short to matter
+// and the other steps keep fourth-order accuracy.
+double path_step(const fluids::FluidModel& fluid, double x, double h, double dx, double factor, int depth) {
+  const Slope k1 = path_slope(fluid, x, h, factor);
+  const Slope k2 = path_slope(fluid, x + 0.5 * dx, h + 0.5 * dx * k1.value, factor);
+  const Slope k3 = path_slope(fluid, x + 0.5 * dx, h + 0.5 * dx * k2.value, factor);
+  const Slope k4 = path_slope(fluid, x + dx, h + dx * k3.value, factor);
+  if (k1.wet != k4.wet && depth < 40) {
+    const double mid = path_step(fluid, x, h, 0.5 * dx, factor, depth + 1);
+    return path_step(fluid, x + 0.5 * dx, mid, 0.5 * dx, factor, depth + 1);
+  }
+  return h + dx / 6.0 * (k1.value + 2 * k2.value + 2 * k3.value + k4.value);
+}
+
+// Integrates the path from (p1, h1) to p2 in `steps` equal steps of ln p.
+double integrate_path(const fluids::FluidModel& fluid, double p1, double h1, double p2, double factor,
+                      int steps) {
   const double x1 = std::log(p1);
   const double dx = (std::log(p2) - x1) / steps;
-  auto slope = [&](double x, double h) {
-    const double p = std::exp(x);
-    const fluids::State st = fluid.from_ph(p, h);
-    return p / st.density * factor;
-  };
   double h = h1;
-  for (int i = 0; i < steps; ++i) {
-    const double x = x1 + i * dx;
-    const double k1 = slope(x, h);
-    const double k2 = slope(x + 0.5 * dx, h + 0.5 * dx * k1);
-    const double k3 = slope(x + 0.5 * dx, h + 0.5 * dx * k2);
-    const double k4 = slope(x + dx, h + dx * k3);
-    h += dx / 6.0 * (k1 + 2 * k2 + 2 * k3 + k4);
-  }
+  for (int i = 0; i < steps; ++i) h = path_step(fluid, x1 + i * dx, h, dx, factor, 0);
   return h;
 }
 

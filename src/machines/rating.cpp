@@ -44,6 +44,11 @@ namespace {
 
 [[noreturn]] void refuse(const std::string& message) { throw Error(ErrorKind::bad_input, message); }
 
+// Above this pressure an ideal-gas result gets a warning: 1 MPa is where natural gas
+// and CO2 depart from p v = R T by a few percent near ambient temperature (common
+// practice, not a standard's figure).
+constexpr double kIdealGasWarningPressure = 1.0e6;  // Pa
+
 bool compresses(MachineKind kind) { return kind != MachineKind::turbine; }
 
 OutletFromEfficiency isentropic_outlet(const FluidModel& fluid, MachineKind machine, const State& inlet,
@@ -475,6 +480,12 @@ Rating Solver::run() {
   r.head_isentropic = std::fabs(eff.isentropic_outlet.enthalpy - inlet.enthalpy);
   r.head_polytropic = comp ? eff.polytropic * rise : rise / eff.polytropic;
   r.pressure_ratio = comp ? outlet.pressure / inlet.pressure : inlet.pressure / outlet.pressure;
+  if (fluid_.ideal_gas_constant() && std::max(inlet.pressure, outlet.pressure) > kIdealGasWarningPressure) {
+    r.warnings.push_back(fmt::format(
+        "the {} model is an ideal gas, and this machine runs up to {}: real-gas effects are not modelled "
+        "and can move efficiency and power by several percent",
+        fluid_.model_name(), show(Quantity::outlet_pressure, std::max(inlet.pressure, outlet.pressure))));
+  }
   if (in_.machine == MachineKind::pump) {
     r.head_height = (outlet.pressure - inlet.pressure) / (inlet.density * units::kStandardGravity);
     if (eta_unknown && !T2_unknown && in_.outlet_temperature) {
