@@ -47,7 +47,8 @@ struct NasaSpecies {
 };
 
 // A set of species, loaded and checked: intervals contiguous and ascending, and
-// cp°, H°, S° continuous at every joint (to 1e-4 relative, NASA's own fits meet this).
+// cp°, H°, S° continuous at every joint (to 1e-4 relative, NASA's own fits meet this;
+// src/fluids/species_library.cpp says how "relative" is meant for H° and S°).
 class SpeciesLibrary {
  public:
   // The species built into the program (data/species.txt).
@@ -56,20 +57,30 @@ class SpeciesLibrary {
   // Parses the project's own species format (see data/species.txt for its layout).
   // `origin` names the file in messages. Throws bad_input naming origin and line.
   static SpeciesLibrary parse_own_format(std::string_view text, const std::string& origin);
-  // Parses the published NASA Glenn 9-coefficient format (NASA/TP-2002-211556, Appendix A).
+  // Parses the published NASA Glenn 9-coefficient format (NASA/TP-2002-211556, Appendix A):
+  // fixed-column records, an optional 'thermo' header with its global-range line, and
+  // 'END PRODUCTS' / 'END REACTANTS' lines. Condensed-phase records (non-zero phase
+  // column) and records without intervals are skipped: this model is an ideal gas.
   static SpeciesLibrary parse_nasa9(std::string_view text, const std::string& origin);
-  // Parses the older NASA 7-coefficient format (two intervals, 4 lines per species).
+  // Parses the older NASA 7-coefficient format (two intervals, 4 lines per species; the
+  // CHEMKIN THERMO layout). The molar mass comes from the record's elemental formula with
+  // the atomic weights of data/elements.txt. Records of phase L or S are skipped.
   static SpeciesLibrary parse_nasa7(std::string_view text, const std::string& origin);
 
   // The species of that name, with aliases ("n-C4H10" for "C4H10,n-butane"), or nullptr.
+  // Names are matched exactly (chemical formulas are case-sensitive: CO is not Co);
+  // a species' own name wins over another species' alias.
   const NasaSpecies* find(std::string_view name) const;
   const std::vector<NasaSpecies>& species() const { return species_; }
+  // The aliases of the species named `name` (empty when it has none or is unknown).
+  std::vector<std::string> aliases_of(std::string_view name) const;
 
-  // Adds (or, by name, replaces) species from another library.
+  // Adds (or, by name, replaces) species from another library, with its aliases.
   void merge(const SpeciesLibrary& other);
 
  private:
   std::vector<NasaSpecies> species_;
+  std::vector<std::pair<std::string, std::string>> aliases_;  // {alias, species name}
 };
 
 enum class CompositionBasis { mole, mass };
@@ -81,11 +92,21 @@ struct Component {
 };
 
 // Ideal gas on NASA polynomials: one species or an ideal mixture.
+//
+// The temperature range is the intersection of the species' ranges; a temperature outside
+// it throws out_of_range naming the species or mixture and the range (nothing is
+// extrapolated). Pressure may be any finite p > 0 (pressure_range() reports 1e-3 to 1e9 Pa
+// for listings). from_ph and from_ps solve for T by safeguarded Newton iteration to 1e-10
+// relative. At each joint of the folded polynomial, b1 and b2 of the upper interval are
+// shifted so that H° and S° meet exactly (the database's own gaps are 1e-7 relative or
+// less), which makes h(T) and s(T) strictly increasing and their inverses unique.
+// The states are immutable and the model is safe to share between threads.
 class NasaPolynomialGas final : public FluidModel {
  public:
   // Fractions on `basis` must sum to 1 within 1 %: they are renormalised, and
   // `renormalised()` tells the caller to warn; beyond 1 % throws bad_input.
   // Zero fractions are dropped; negative ones throw. Duplicate species throw.
+  // The species are copied: the library they came from need not outlive the gas.
   NasaPolynomialGas(const std::vector<Component>& components, CompositionBasis basis);
 
   State from_pt(double p, double T) const override;
@@ -97,8 +118,10 @@ class NasaPolynomialGas final : public FluidModel {
   Range pressure_range() const override;
   std::optional<double> ideal_gas_constant() const override;
 
-  // Mole fractions after renormalisation, by species name.
+  // Mole fractions after renormalisation, by species name, in the order given.
   std::vector<std::pair<std::string, double>> mole_fractions() const;
+  // True when the given fractions did not sum to 1 (beyond 1e-9, i.e. more than the
+  // rounding of decimal fractions) and were scaled to do so.
   bool renormalised() const;
   // The sum of the fractions as given, before renormalisation.
   double given_sum() const;

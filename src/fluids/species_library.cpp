@@ -1,0 +1,767 @@
+// SpeciesLibrary: reads species coefficients in three formats and checks them on load.
+//
+// The formats:
+//   own   data/species.txt: keyword lines (species, alias, molar_mass, source, interval,
+//         end); the file's header comment and docs/properties.md describe it.
+//   nasa9 the published NASA Glenn 9-coefficient format, McBride, Zehe & Gordon,
+//         NASA/TP-2002-211556 (2002), Appendix A: fixed columns, Fortran D exponents.
+//   nasa7 the older 7-coefficient format (Gordon & McBride, NASA TM-4513; the CHEMKIN
+//         THERMO layout): 4 fixed-column lines per species, two intervals.
+// Every problem is a bad_input error "ORIGIN:LINE: what is wrong", ninja-style.
+//
+// The load check (all formats): a positive molar mass; intervals with 0 < T_low < T_high,
+// ascending and contiguous (each starts exactly where the previous one ends); and at each
+// joint cp°, H° and S° of the two intervals agree within kJointTolerance = 1e-4 relative.
+// "Relative" means |below - above| / scale with scale = max(|cp° below|, |cp° above|) for
+// cp°, max(|H° below|, |H° above|, R T) for H° (H° includes the enthalpy of formation and
+// can pass through zero), and max(|S° below|, |S° above|, R) for S°. The NASA Glenn fits
+// of the built-in species meet this by three orders of magnitude (their joints differ by
+// 1e-7 or less); of the 1267 gas records in the 2004 database, only ALOCL misses it.
+#include <algorithm>
+#include <cctype>
+#include <charconv>
+#include <cmath>
+#include <map>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <utility>
+#include <vector>
+
+#include <fmt/format.h>
+
+#include "nasa_interval.hpp"
+#include "shaftwork/error.hpp"
+#include "shaftwork/fluids/nasa_polynomial.hpp"
+#include "shaftwork/units/quantity.hpp"
+
+namespace shaftwork::fluids {
+
+// The text of a data/*.txt file compiled into the program (build/generated/embedded_data.cpp,
+// written by cmake/embed_data.cmake); empty when there is no such file.
+std::string_view embedded_data(std::string_view file_name);
+
+namespace {
+
+constexpr double kJointTolerance = 1e-4;  // relative, see the file comment
+
+// ---------------------------------------------------------------------------------------
+// Text helpers
+
+struct Line {
+  std::string_view text;
+  int number;  // 1-based
+};
+
+std::vector<Line> split_lines(std::string_view text) {
+  std::vector<Line> lines;
+  int number = 0;
+  while (!text.empty()) {
+    const std::size_t end = text.find('\n');
+    std::string_view line = text.substr(0, end);
+    if (!line.empty() && line.back() == '\r') line.remove_suffix(1);
+    lines.push_back({line, ++number});
+    if (end == std::string_view::npos) break;
+    text.remove_prefix(end + 1);
+  }
+  return lines;
+}
+
+std::string_view trim(std::string_view s) {
+  const std::size_t first = s.find_first_not_of(" \t");
+  if (first == std::string_view::npos) return {};
+  const std::size_t last = s.find_last_not_of(" \t");
+  return s.substr(first, last - first + 1);
+}
+
+std::vector<std::string_view> split_words(std::string_view s) {
+  std::vector<std::string_view> words;
+  while (true) {
+    s = trim(s);
+    if (s.empty()) return words;
+    const std::size_t end = s.find_first_of(" \t");
+    words.push_back(s.substr(0, end));
+    if (end == std::string_view::npos) return words;
+    s.remove_prefix(end);
+  }
+}
+
+std::string first_word_upper(std::string_view s) {
+  const auto words = split_words(s);
+  std::string word = words.empty() ? std::string() : std::string(words.front());
+  for (char& c : word) c = static_cast<char>(std::toupper(static_cast<unsigned char>(c)));
+  return word;
+}
+
+// Columns first..last (1-based, inclusive) of a fixed-column line; a short line reads as blanks.
+std::string_view columns(std::string_view line, std::size_t first, std::size_t last) {
+  if (line.size() < first) return {};
+  return line.substr(first - 1, std::min(last, line.size()) - (first - 1));
+}
+
+// A whole field as a finite number; Fortran's D exponent and a leading '+' are accepted.
+std::optional<double> parse_number(std::string_view field) {
+  field = trim(field);
+  char buffer[64];
+  if (field.empty() || field.size() >= sizeof buffer) return std::nullopt;
+  std::size_t n = 0;
+  for (char c : field) buffer[n++] = (c == 'D' || c == 'd') ? 'e' : c;
+  const char* begin = buffer;
+  const char* end = buffer + n;
+  if (*begin == '+') {
+    ++begin;  // std::from_chars refuses a leading '+'
+    if (begin == end || *begin == '-' || *begin == '+') return std::nullopt;
+  }
+  double value = 0;
+  const auto [stop, error] = std::from_chars(begin, end, value);
+  if (error != std::errc() || stop != end || !std::isfinite(value)) return std::nullopt;
+  return value;
+}
+
+[[noreturn]] void fail(const std::string& origin, int line, const std::string& what) {
+  throw Error(ErrorKind::bad_input, fmt::format("{}:{}: {}", origin, line, what));
+}
+
+// ---------------------------------------------------------------------------------------
+// The load check
+
+void check_joint(const NasaSpecies& sp, std::size_t upper, const std::string& origin, int line) {
+  const NasaInterval& below = sp.intervals[upper - 1];
+  const NasaInterval& above = sp.intervals[upper];
+  const double T = above.t_low;
+  const detail::NasaValues a = detail::evaluate(below, T);
+  const detail::NasaValues b = detail::evaluate(above, T);
+  struct Quantity {
+    const char* name;
+    double below, above, scale;
+    const char* unit;
+    double to_unit;  // multiplies a dimensionless value (…/R) into `unit`
+  };
+  const double R = units::kGasConstant;  // J/(mol K)
+  const Quantity quantities[] = {
+      {"cp°", a.cp_over_r, b.cp_over_r, std::max(std::fabs(a.cp_over_r), std::fabs(b.cp_over_r)),
+       "J/(mol K)", R},
+      {"H°", a.h_over_r, b.h_over_r,
+       std::max({std::fabs(a.h_over_r), std::fabs(b.h_over_r), T}), "kJ/mol", R / 1000},
+      {"S°", a.s_over_r, b.s_over_r, std::max({std::fabs(a.s_over_r), std::fabs(b.s_over_r), 1.0}),
+       "J/(mol K)", R},
+  };
+  for (const Quantity& q : quantities) {
+    const double jump = std::fabs(q.below - q.above) / q.scale;
+    if (!(jump <= kJointTolerance)) {
+      fail(origin, line,
+           fmt::format("{}: {} jumps by {:.2g} (relative) at the joint {:g} K of intervals {} and {}: "
+                       "{:.8g} {} below, {:.8g} {} above; the intervals must meet within 1e-4",
+                       sp.name, q.name, jump, T, upper, upper + 1, q.below * q.to_unit, q.unit,
+                       q.above * q.to_unit, q.unit));
+    }
+  }
+}
+
+// `record_line` is where the species begins; `interval_lines[i]` where interval i is written.
+void check_species(const NasaSpecies& sp, const std::string& origin, int record_line,
+                   const std::vector<int>& interval_lines) {
+  if (!(std::isfinite(sp.molar_mass) && sp.molar_mass > 0)) {
+    fail(origin, record_line,
+         fmt::format("{}: the molar mass must be above 0, got {:g} kg/mol", sp.name, sp.molar_mass));
+  }
+  if (sp.intervals.empty()) fail(origin, record_line, fmt::format("{}: no temperature interval", sp.name));
+  for (std::size_t i = 0; i < sp.intervals.size(); ++i) {
+    const NasaInterval& in = sp.intervals[i];
+    const int line = interval_lines[i];
+    if (!(in.t_low > 0 && in.t_high > in.t_low)) {
+      fail(origin, line,
+           fmt::format("{}: interval {} runs from {:g} K to {:g} K; it needs 0 < T_low < T_high",
+                       sp.name, i + 1, in.t_low, in.t_high));
+    }
+    if (i == 0) continue;
+    const NasaInterval& previous = sp.intervals[i - 1];
+    if (in.t_low != previous.t_high) {
+      fail(origin, line,
+           fmt::format("{}: interval {} starts at {:g} K but interval {} ends at {:g} K; the "
+                       "intervals must be ascending and contiguous",
+                       sp.name, i + 1, in.t_low, i, previous.t_high));
+    }
+    check_joint(sp, i, origin, line);
+  }
+}
+
+// ---------------------------------------------------------------------------------------
+// Building a library while parsing: names and aliases must be unique.
+
+class Builder {
+ public:
+  explicit Builder(std::string origin) : origin_(std::move(origin)) {}
+
+  const std::string& origin() const { return origin_; }
+
+  void add(NasaSpecies sp, int record_line, const std::vector<int>& interval_lines) {
+    check_species(sp, origin_, record_line, interval_lines);
+    if (const auto seen = first_line_of(sp.name)) {
+      fail(origin_, record_line,
+           fmt::format("{} is defined twice (first on line {})", sp.name, *seen));
+    }
+    lines_.emplace_back(sp.name, record_line);
+    species_.push_back(std::move(sp));
+  }
+
+  void add_alias(const std::string& alias, const std::string& name, int line) {
+    if (const auto seen = first_line_of(alias)) {
+      fail(origin_, line,
+           fmt::format("alias {} of {} is already a name or alias on line {}", alias, name, *seen));
+    }
+    lines_.emplace_back(alias, line);
+    aliases_.emplace_back(alias, name);
+  }
+
+  std::vector<NasaSpecies> species_;
+  std::vector<std::pair<std::string, std::string>> aliases_;
+
+ private:
+  std::optional<int> first_line_of(const std::string& name) const {
+    for (const auto& [known, line] : lines_) {
+      if (known == name) return line;
+    }
+    return std::nullopt;
+  }
+
+  std::string origin_;
+  std::vector<std::pair<std::string, int>> lines_;  // every name and alias, with its line
+};
+
+// ---------------------------------------------------------------------------------------
+// Atomic weights for the 7-coefficient format (data/elements.txt, from the NASA database).
+
+const std::map<std::string, double>& atomic_weights() {
+  static const std::map<std::string, double> weights = [] {
+    const std::string origin = "elements.txt (built in)";
+    const std::string_view text = embedded_data("elements.txt");
+    if (text.empty()) {
+      throw Error(ErrorKind::not_available,
+                  "the built-in atomic weights (data/elements.txt) are missing from this build");
+    }
+    std::map<std::string, double> table;
+    for (const Line& line : split_lines(text)) {
+      const auto words = split_words(line.text);
+      if (words.empty() || words.front().front() == '#') continue;
+      if (words.size() != 3 || words.front() != "element") {
+        fail(origin, line.number, "expected 'element SYMBOL ATOMIC_WEIGHT'");
+      }
+      const double weight = parse_number(words[2]).value_or(0.0);
+      if (!(weight > 0)) fail(origin, line.number, "the atomic weight must be a number above 0");
+      std::string symbol(words[1]);
+      for (char& c : symbol) c = static_cast<char>(std::toupper(static_cast<unsigned char>(c)));
+      table[symbol] = weight / 1000.0;  // g/mol -> kg/mol
+    }
+    return table;
+  }();
+  return weights;
+}
+
+}  // namespace
+
+// =======================================================================================
+// The project's own format
+
+SpeciesLibrary SpeciesLibrary::parse_own_format(std::string_view text, const std::string& origin) {
+  Builder builder(origin);
+  struct Block {
+    NasaSpecies species;
+    int first_line = 0;
+    bool has_molar_mass = false;
+    std::vector<int> interval_lines;
+    std::vector<std::pair<std::string, int>> aliases;
+  };
+  std::optional<Block> block;
+  int last_line = 0;
+  static constexpr const char* kFieldNames[] = {"T_low", "T_high", "a0", "a1", "a2", "a3",
+                                                "a4",    "a5",     "a6", "b1", "b2"};
+
+  for (const Line& line : split_lines(text)) {
+    last_line = line.number;
+    const std::string_view content = trim(line.text);
+    if (content.empty() || content.front() == '#') continue;
+    const std::size_t space = content.find_first_of(" \t");
+    const std::string_view keyword = content.substr(0, space);
+    const std::string_view rest =
+        space == std::string_view::npos ? std::string_view() : trim(content.substr(space));
+    const auto words = split_words(rest);
+
+    if (keyword == "species") {
+      if (block) {
+        fail(origin, line.number,
+             fmt::format("'species {}' begins before the block of {} (line {}) is closed with 'end'",
+                         rest, block->species.name, block->first_line));
+      }
+      if (words.size() != 1) fail(origin, line.number, "'species' needs one name, without spaces");
+      block.emplace();
+      block->species.name = std::string(words[0]);
+      block->first_line = line.number;
+      continue;
+    }
+    if (!block) {
+      fail(origin, line.number,
+           fmt::format("'{}' outside a species block (a block begins with 'species NAME')", keyword));
+    }
+    NasaSpecies& sp = block->species;
+    if (keyword == "alias") {
+      if (words.size() != 1) {
+        fail(origin, line.number, fmt::format("{}: 'alias' needs one name, without spaces", sp.name));
+      }
+      block->aliases.emplace_back(std::string(words[0]), line.number);
+    } else if (keyword == "molar_mass") {
+      const auto value = words.size() == 2 ? parse_number(words[0]) : std::nullopt;
+      const bool grams = words.size() == 2 && words[1] == "g/mol";
+      const bool kilograms = words.size() == 2 && words[1] == "kg/mol";
+      if (!value || !(grams || kilograms)) {
+        fail(origin, line.number,
+             fmt::format("{}: 'molar_mass' needs a number and a unit, g/mol or kg/mol; found '{}'",
+                         sp.name, rest));
+      }
+      if (block->has_molar_mass) fail(origin, line.number, fmt::format("{}: a second molar_mass", sp.name));
+      sp.molar_mass = grams ? *value / 1000.0 : *value;
+      block->has_molar_mass = true;
+    } else if (keyword == "source") {
+      if (rest.empty()) fail(origin, line.number, fmt::format("{}: 'source' needs a text", sp.name));
+      if (!sp.source.empty()) fail(origin, line.number, fmt::format("{}: a second source", sp.name));
+      sp.source = std::string(rest);
+    } else if (keyword == "interval") {
+      if (words.size() != 11) {
+        fail(origin, line.number,
+             fmt::format("{}: an interval needs 11 numbers (T_low T_high a0 a1 a2 a3 a4 a5 a6 b1 "
+                         "b2), found {}",
+                         sp.name, words.size()));
+      }
+      double values[11];
+      for (std::size_t k = 0; k < 11; ++k) {
+        const auto value = parse_number(words[k]);
+        if (!value) {
+          fail(origin, line.number,
+               fmt::format("{}: {} '{}' is not a number", sp.name, kFieldNames[k], words[k]));
+        }
+        values[k] = *value;
+      }
+      NasaInterval in;
+      in.t_low = values[0];
+      in.t_high = values[1];
+      std::copy(values + 2, values + 9, in.a.begin());
+      in.b1 = values[9];
+      in.b2 = values[10];
+      sp.intervals.push_back(in);
+      block->interval_lines.push_back(line.number);
+    } else if (keyword == "end") {
+      if (!block->has_molar_mass) {
+        fail(origin, line.number, fmt::format("{}: the block has no molar_mass line", sp.name));
+      }
+      if (sp.source.empty()) {
+        fail(origin, line.number,
+             fmt::format("{}: the block has no source line (say where the figures come from)", sp.name));
+      }
+      if (sp.intervals.empty()) {
+        fail(origin, line.number, fmt::format("{}: the block has no interval line", sp.name));
+      }
+      const std::string name = sp.name;
+      builder.add(std::move(sp), block->first_line, block->interval_lines);
+      for (const auto& [alias, alias_line] : block->aliases) builder.add_alias(alias, name, alias_line);
+      block.reset();
+    } else {
+      fail(origin, line.number,
+           fmt::format("unknown keyword '{}' (expected species, alias, molar_mass, source, interval "
+                       "or end)",
+                       keyword));
+    }
+  }
+  if (block) {
+    fail(origin, last_line,
+         fmt::format("{}: the text ends inside the block that begins on line {} (no 'end')",
+                     block->species.name, block->first_line));
+  }
+  SpeciesLibrary library;
+  library.species_ = std::move(builder.species_);
+  library.aliases_ = std::move(builder.aliases_);
+  return library;
+}
+
+// =======================================================================================
+// NASA Glenn 9-coefficient format (NASA/TP-2002-211556, Appendix A)
+//
+// Record line 1: name (first word), then the comment (reference text).
+// Line 2: cols 1-2 number of intervals; 4-9 reference-date code; 11-50 formula;
+//         51-52 phase (0 gas); 53-65 molecular weight, g/mol; 66-80 heat of formation.
+// Per interval, three lines: (a) cols 1-22 T range (2F11.3), 23 number of coefficients (7),
+//         24-63 the T exponents (8F5.1: -2 -1 0 1 2 3 4 0), 66-80 H(298.15)-H(0);
+//         (b) a0..a4 in 5 fields of 16 columns; (c) a5, a6 in columns 1-32, columns 33-48
+//         blank or zero, b1 in 49-64, b2 in 65-80.
+
+SpeciesLibrary SpeciesLibrary::parse_nasa9(std::string_view text, const std::string& origin) {
+  const std::vector<Line> lines = split_lines(text);
+  Builder builder(origin);
+  auto is_comment = [](std::string_view s) {
+    s = trim(s);
+    return s.empty() || s.front() == '!' || s.front() == '#';
+  };
+  std::size_t i = 0;
+  while (i < lines.size()) {
+    if (is_comment(lines[i].text)) {
+      ++i;
+      continue;
+    }
+    const std::string word = first_word_upper(lines[i].text);
+    if (word == "THERMO") {
+      // The line after 'thermo' holds the global temperature ranges (and a date).
+      const int thermo_line = lines[i].number;
+      ++i;
+      while (i < lines.size() && is_comment(lines[i].text)) ++i;
+      const auto words = i < lines.size() ? split_words(lines[i].text) : std::vector<std::string_view>{};
+      if (words.empty() || !parse_number(words[0])) {
+        fail(origin, i < lines.size() ? lines[i].number : thermo_line,
+             "'thermo' must be followed by the line of global temperature ranges, e.g. '200.00 "
+             "1000.00 6000.00 20000.'");
+      }
+      ++i;
+      continue;
+    }
+    if (word.rfind("END", 0) == 0) {  // END PRODUCTS, END REACTANTS
+      ++i;
+      continue;
+    }
+
+    // A species record.
+    const std::size_t start = i;
+    const int record_line = lines[start].number;
+    const auto head_words = split_words(lines[start].text);
+    NasaSpecies sp;
+    sp.name = std::string(head_words.front());
+    const std::string_view after_name =
+        trim(trim(lines[start].text).substr(head_words.front().size()));
+    // The next line of this record, or an error saying what is missing.
+    auto record_line_at = [&](std::size_t offset, const std::string& what) -> const Line& {
+      if (start + offset >= lines.size()) {
+        fail(origin, lines.back().number,
+             fmt::format("{}: the record that begins on line {} ends early: {} is missing", sp.name,
+                         record_line, what));
+      }
+      return lines[start + offset];
+    };
+    auto number_at = [&](const Line& line, std::size_t first, std::size_t last,
+                         const std::string& what) -> double {
+      const auto value = parse_number(columns(line.text, first, last));
+      if (!value) {
+        fail(origin, line.number,
+             fmt::format("{}: columns {}-{} should hold {}, found '{}'", sp.name, first, last, what,
+                         trim(columns(line.text, first, last))));
+      }
+      return *value;
+    };
+
+    const Line& second = record_line_at(1, "line 2 (number of intervals, formula, molecular weight)");
+    const double count_value = number_at(second, 1, 2, "the number of temperature intervals");
+    if (count_value < 0 || count_value > 20 || count_value != std::floor(count_value)) {
+      fail(origin, second.number,
+           fmt::format("{}: columns 1-2 should hold the number of temperature intervals, found '{}'",
+                       sp.name, columns(second.text, 1, 2)));
+    }
+    const auto count = static_cast<std::size_t>(count_value);
+    const std::string code(trim(columns(second.text, 4, 9)));
+    const std::string_view phase_field = trim(columns(second.text, 51, 52));
+    const double phase = phase_field.empty() ? 0.0 : number_at(second, 51, 52, "the phase (0 for a gas)");
+    const double molecular_weight = number_at(second, 53, 65, "the molecular weight in g/mol");
+
+    if (count == 0) {  // a reactant with an assigned enthalpy only: name, line 2, one T line
+      i = std::min(lines.size(), start + 3);
+      continue;
+    }
+    if (phase != 0) {  // a condensed phase: not an ideal gas, skipped
+      i = std::min(lines.size(), start + 2 + 3 * count);
+      continue;
+    }
+
+    std::vector<int> interval_lines;
+    for (std::size_t k = 0; k < count; ++k) {
+      const std::string which = fmt::format("interval {} of {}", k + 1, count);
+      const Line& t_line = record_line_at(2 + 3 * k, fmt::format("the temperature line of {}", which));
+      const Line& c_line = record_line_at(3 + 3 * k, fmt::format("the first coefficient line of {}", which));
+      const Line& d_line = record_line_at(4 + 3 * k, fmt::format("the second coefficient line of {}", which));
+      NasaInterval in;
+      in.t_low = number_at(t_line, 1, 11, fmt::format("the lower temperature of {}", which));
+      in.t_high = number_at(t_line, 12, 22, fmt::format("the upper temperature of {}", which));
+      if (number_at(t_line, 23, 23, "the number of coefficients (7)") != 7) {
+        fail(origin, t_line.number,
+             fmt::format("{}: column 23 should hold 7, the number of cp coefficients, found '{}'",
+                         sp.name, columns(t_line.text, 23, 23)));
+      }
+      static constexpr double kExponents[8] = {-2, -1, 0, 1, 2, 3, 4, 0};
+      for (std::size_t e = 0; e < 8; ++e) {
+        const std::size_t first = 24 + 5 * e;
+        if (number_at(t_line, first, first + 4, "a temperature exponent") != kExponents[e]) {
+          fail(origin, t_line.number,
+               fmt::format("{}: the temperature exponents in columns 24-63 must be -2 -1 0 1 2 3 4 "
+                           "0, found '{}'",
+                           sp.name, trim(columns(t_line.text, 24, 63))));
+        }
+      }
+      for (std::size_t j = 0; j < 5; ++j) {
+        in.a[j] = number_at(c_line, 1 + 16 * j, 16 + 16 * j,
+                            fmt::format("coefficient a{} of interval {}", j, k + 1));
+      }
+      in.a[5] = number_at(d_line, 1, 16, fmt::format("coefficient a5 of interval {}", k + 1));
+      in.a[6] = number_at(d_line, 17, 32, fmt::format("coefficient a6 of interval {}", k + 1));
+      if (!trim(columns(d_line.text, 33, 48)).empty() &&
+          number_at(d_line, 33, 48, "a blank or zero eighth coefficient") != 0) {
+        fail(origin, d_line.number,
+             fmt::format("{}: columns 33-48 (an eighth coefficient) must be blank or zero", sp.name));
+      }
+      in.b1 = number_at(d_line, 49, 64, fmt::format("the constant b1 of interval {}", k + 1));
+      in.b2 = number_at(d_line, 65, 80, fmt::format("the constant b2 of interval {}", k + 1));
+      sp.intervals.push_back(in);
+      interval_lines.push_back(t_line.number);
+    }
+    sp.molar_mass = molecular_weight / 1000.0;
+    sp.source = fmt::format("{} line {} (NASA 9-coefficient record, code {}): {}", origin, record_line,
+                            code, after_name);
+    builder.add(std::move(sp), record_line, interval_lines);
+    i = start + 2 + 3 * count;
+  }
+  SpeciesLibrary library;
+  library.species_ = std::move(builder.species_);
+  library.aliases_ = std::move(builder.aliases_);
+  return library;
+}
+
+// =======================================================================================
+// NASA 7-coefficient format (CHEMKIN THERMO layout)
+//
+// Line 1: cols 1-18 name (first word) and comment; 19-24 date; 25-44 formula, four
+//         fields of a 2-column element symbol and a 3-column count; 45 phase G, L or S;
+//         46-55 T low; 56-65 T high; 66-73 T common; 74-78 an optional fifth element;
+//         80 the digit 1. Many files write T common as "  1000.000", spilling into columns
+//         74-75; when those hold no letter they are read as part of T common.
+// Line 2: upper-interval a1..a5 (5E15.8, cols 1-75); 80 the digit 2.
+// Line 3: upper a6, a7, lower a1, a2, a3; 80 the digit 3.
+// Line 4: lower a4..a7 (cols 1-60); 80 the digit 4.
+// cp/R = a1 + a2 T + a3 T^2 + a4 T^3 + a5 T^4, a6 and a7 the enthalpy and entropy
+// constants: the 9-coefficient form with a0 = a1 = 0, so a2..a6, b1, b2 = a1..a5, a6, a7.
+// An optional 'THERMO' (or 'THERMO ALL') line may be followed by the three global
+// temperatures (low, common, high); the common one stands in for a blank T common.
+// 'END' ends the section.
+
+SpeciesLibrary SpeciesLibrary::parse_nasa7(std::string_view text, const std::string& origin) {
+  const std::vector<Line> lines = split_lines(text);
+  Builder builder(origin);
+  std::optional<double> global_common;
+  auto is_comment = [](std::string_view s) {
+    s = trim(s);
+    return s.empty() || s.front() == '!' || s.front() == '#';
+  };
+  std::size_t i = 0;
+  while (i < lines.size()) {
+    if (is_comment(lines[i].text)) {
+      ++i;
+      continue;
+    }
+    const std::string word = first_word_upper(lines[i].text);
+    if (word == "THERMO") {
+      ++i;
+      while (i < lines.size() && is_comment(lines[i].text)) ++i;
+      if (i < lines.size()) {
+        const auto words = split_words(lines[i].text);
+        if (words.size() >= 3 && parse_number(words[0]) && parse_number(words[1]) &&
+            parse_number(words[2])) {
+          global_common = parse_number(words[1]);
+          ++i;
+        }
+      }
+      continue;
+    }
+    if (word == "END") break;
+
+    const std::size_t start = i;
+    const int record_line = lines[start].number;
+    NasaSpecies sp;
+    const auto name_words = split_words(columns(lines[start].text, 1, 18));
+    if (name_words.empty()) {
+      fail(origin, record_line, "columns 1-18 should begin with a species name");
+    }
+    sp.name = std::string(name_words.front());
+    for (std::size_t r = 1; r < 4; ++r) {
+      if (start + r >= lines.size()) {
+        fail(origin, lines.back().number,
+             fmt::format("{}: the record that begins on line {} ends early: line {} of 4 is missing",
+                         sp.name, record_line, r + 1));
+      }
+    }
+    // Column 80 numbers the record's lines; a wrong digit means a line is missing or extra.
+    for (std::size_t r = 0; r < 4; ++r) {
+      const Line& line = lines[start + r];
+      const std::string_view mark = trim(columns(line.text, 80, 80));
+      if (!mark.empty() && mark.front() != static_cast<char>('1' + r)) {
+        fail(origin, line.number,
+             fmt::format("{}: this should be line {} of the record (column 80 '{}'), found '{}'; is "
+                         "a line missing?",
+                         sp.name, r + 1, r + 1, mark));
+      }
+    }
+    auto number_at = [&](const Line& line, std::size_t first, std::size_t last,
+                         const std::string& what) -> double {
+      const auto value = parse_number(columns(line.text, first, last));
+      if (!value) {
+        fail(origin, line.number,
+             fmt::format("{}: columns {}-{} should hold {}, found '{}'", sp.name, first, last, what,
+                         trim(columns(line.text, first, last))));
+      }
+      return *value;
+    };
+
+    const Line& head = lines[start];
+    const std::string date(trim(columns(head.text, 19, 24)));
+    const std::string_view phase = trim(columns(head.text, 45, 45));
+    if (phase != "G" && phase != "g" && phase != "L" && phase != "l" && phase != "S" && phase != "s") {
+      fail(origin, head.number,
+           fmt::format("{}: column 45 should hold the phase, G, L or S, found '{}'", sp.name, phase));
+    }
+    if (phase != "G" && phase != "g") {  // a condensed phase: not an ideal gas, skipped
+      i = start + 4;
+      continue;
+    }
+
+    // The elemental formula gives the molar mass.
+    const bool fifth_element = std::any_of(head.text.begin() + std::min<std::size_t>(73, head.text.size()),
+                                           head.text.begin() + std::min<std::size_t>(75, head.text.size()),
+                                           [](char c) { return std::isalpha(static_cast<unsigned char>(c)); });
+    std::vector<std::pair<std::size_t, std::size_t>> element_fields = {{25, 29}, {30, 34}, {35, 39}, {40, 44}};
+    if (fifth_element) element_fields.emplace_back(74, 78);
+    double molar_mass = 0;
+    for (const auto& [first, last] : element_fields) {
+      const std::string_view symbol_field = trim(columns(head.text, first, first + 1));
+      const std::string_view count_field = trim(columns(head.text, first + 2, last));
+      if (symbol_field.empty() && (count_field.empty() || parse_number(count_field) == 0.0)) continue;
+      const auto count = parse_number(count_field);
+      if (!count || *count < 0) {
+        fail(origin, head.number,
+             fmt::format("{}: columns {}-{} should hold an element count, found '{}'", sp.name,
+                         first + 2, last, columns(head.text, first + 2, last)));
+      }
+      if (*count == 0) continue;
+      std::string symbol(symbol_field);
+      for (char& c : symbol) c = static_cast<char>(std::toupper(static_cast<unsigned char>(c)));
+      const auto& weights = atomic_weights();
+      const auto found = weights.find(symbol);
+      if (found == weights.end()) {
+        fail(origin, head.number,
+             fmt::format("{}: element '{}' of the formula (columns {}-{}) is not known", sp.name,
+                         symbol_field, first, first + 1));
+      }
+      molar_mass += *count * found->second;
+    }
+    if (!(molar_mass > 0)) {
+      fail(origin, head.number,
+           fmt::format("{}: columns 25-44 should hold the elemental formula, found '{}'", sp.name,
+                       trim(columns(head.text, 25, 44))));
+    }
+    sp.molar_mass = molar_mass;
+
+    const double t_low = number_at(head, 46, 55, "the lower temperature");
+    const double t_high = number_at(head, 56, 65, "the upper temperature");
+    const std::size_t common_last = fifth_element ? 73 : 75;
+    double t_common = 0;
+    if (trim(columns(head.text, 66, common_last)).empty()) {
+      if (!global_common) {
+        fail(origin, head.number,
+             fmt::format("{}: columns 66-73 (the common temperature) are blank and no THERMO line "
+                         "gives a default",
+                         sp.name));
+      }
+      t_common = *global_common;
+    } else {
+      t_common = number_at(head, 66, common_last, "the common temperature");
+    }
+
+    double c[14];  // upper a1..a7, then lower a1..a7
+    const Line* coefficient_lines[3] = {&lines[start + 1], &lines[start + 2], &lines[start + 3]};
+    for (std::size_t k = 0; k < 14; ++k) {
+      const Line& line = *coefficient_lines[k / 5];
+      const std::size_t first = 1 + 15 * (k % 5);
+      const char* interval = k < 7 ? "upper" : "lower";
+      c[k] = number_at(line, first, first + 14,
+                       fmt::format("coefficient a{} of the {} interval", k % 7 + 1, interval));
+    }
+    auto interval_from = [](double low, double high, const double* a) {
+      NasaInterval in;
+      in.t_low = low;
+      in.t_high = high;
+      in.a = {0, 0, a[0], a[1], a[2], a[3], a[4]};
+      in.b1 = a[5];
+      in.b2 = a[6];
+      return in;
+    };
+    sp.intervals = {interval_from(t_low, t_common, c + 7), interval_from(t_common, t_high, c)};
+    sp.source = fmt::format("{} line {} (NASA 7-coefficient record{})", origin, record_line,
+                            date.empty() ? std::string() : ", date/code " + date);
+    builder.add(std::move(sp), record_line, {record_line, record_line});
+    i = start + 4;
+  }
+  SpeciesLibrary library;
+  library.species_ = std::move(builder.species_);
+  library.aliases_ = std::move(builder.aliases_);
+  return library;
+}
+
+// =======================================================================================
+
+const SpeciesLibrary& SpeciesLibrary::built_in() {
+  // Parsed once, on first use; C++11 guarantees the initialisation is thread-safe.
+  static const SpeciesLibrary library = [] {
+    const std::string_view text = embedded_data("species.txt");
+    if (text.empty()) {
+      throw Error(ErrorKind::not_available,
+                  "the built-in species data (data/species.txt) are missing from this build");
+    }
+    return parse_own_format(text, "species.txt (built in)");
+  }();
+  return library;
+}
+
+const NasaSpecies* SpeciesLibrary::find(std::string_view name) const {
+  for (const NasaSpecies& sp : species_) {
+    if (sp.name == name) return &sp;
+  }
+  for (const auto& [alias, target] : aliases_) {
+    if (alias == name) {
+      for (const NasaSpecies& sp : species_) {
+        if (sp.name == target) return &sp;
+      }
+    }
+  }
+  return nullptr;
+}
+
+std::vector<std::string> SpeciesLibrary::aliases_of(std::string_view name) const {
+  std::vector<std::string> found;
+  for (const auto& [alias, target] : aliases_) {
+    if (target == name) found.push_back(alias);
+  }
+  return found;
+}
+
+void SpeciesLibrary::merge(const SpeciesLibrary& other) {
+  for (const NasaSpecies& sp : other.species_) {
+    const auto same = std::find_if(species_.begin(), species_.end(),
+                                   [&](const NasaSpecies& mine) { return mine.name == sp.name; });
+    if (same != species_.end()) {
+      *same = sp;
+    } else {
+      species_.push_back(sp);
+    }
+  }
+  for (const auto& [alias, target] : other.aliases_) {
+    const auto same = std::find_if(aliases_.begin(), aliases_.end(),
+                                   [&](const auto& mine) { return mine.first == alias; });
+    if (same != aliases_.end()) {
+      same->second = target;
+    } else {
+      aliases_.emplace_back(alias, target);
+    }
+  }
+}
+
+}  // namespace shaftwork::fluids
