@@ -753,7 +753,10 @@ void SpeciesLibrary::merge(const SpeciesLibrary& other) {
       species_.push_back(sp);
     }
   }
-  for (const auto& [alias, target] : other.aliases_) {
+  // Not a structured binding: clang 14 cannot capture one in a lambda (P1091 came in clang 16).
+  for (const auto& entry : other.aliases_) {
+    const std::string& alias = entry.first;
+    const std::string& target = entry.second;
     const auto same = std::find_if(aliases_.begin(), aliases_.end(),
                                    [&](const auto& mine) { return mine.first == alias; });
     if (same != aliases_.end()) {
