@@ -114,7 +114,7 @@ int run_state(const StateOptions& o) {
     } else if (o.enthalpy) {
       s = model->from_ph(p, quantity(*o.enthalpy, units::Dimension::specific_energy, "--enthalpy", context, notes));
     } else {
-      s = model->from_ps(p, quantity(*o.entropy, units::Dimension::specific_heat, "--entropy", context, notes));
+      s = model->from_ps(p, quantity(*o.entropy, units::Dimension::specific_entropy, "--entropy", context, notes));
     }
     for (const auto& w : warnings) std::cerr << "warning: " << w << '\n';
     if (o.format == "json") {

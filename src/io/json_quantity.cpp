@@ -27,7 +27,8 @@ ReadQuantity read_quantity(const nlohmann::json& value, units::Dimension d, cons
         case units::Dimension::power: si_unit = "W"; break;
         case units::Dimension::specific_energy: si_unit = "J/kg"; break;
         case units::Dimension::length: si_unit = "m"; break;
-        case units::Dimension::specific_heat: si_unit = "J/(kg K)"; break;
+        case units::Dimension::specific_heat:
+        case units::Dimension::specific_entropy: si_unit = "J/(kg K)"; break;
         case units::Dimension::density: si_unit = "kg/m3"; break;
         case units::Dimension::molar_mass: si_unit = "kg/mol"; break;
         case units::Dimension::fraction: return {x, ""};

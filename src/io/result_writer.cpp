@@ -28,7 +28,8 @@ const char* display_unit(Dimension d, UnitSystem system) {
     case Dimension::power: return us ? "hp" : "kW";
     case Dimension::specific_energy: return us ? "Btu/lb" : "kJ/kg";
     case Dimension::length: return us ? "ft" : "m";
-    case Dimension::specific_heat: return us ? "Btu/(lb R)" : "kJ/(kg K)";
+    case Dimension::specific_heat:
+    case Dimension::specific_entropy: return us ? "Btu/(lb R)" : "kJ/(kg K)";
     case Dimension::density: return us ? "lb/ft3" : "kg/m3";
     case Dimension::molar_mass: return "g/mol";
     case Dimension::standard_volume_flow:
@@ -57,13 +58,13 @@ const std::vector<Column>& columns() {
       {"inlet.pressure", Dimension::pressure, [](R r) -> O { return r.inlet.pressure; }},
       {"inlet.temperature", Dimension::temperature, [](R r) -> O { return r.inlet.temperature; }},
       {"inlet.enthalpy", Dimension::specific_energy, [](R r) -> O { return r.inlet.enthalpy; }},
-      {"inlet.entropy", Dimension::specific_heat, [](R r) -> O { return r.inlet.entropy; }},
+      {"inlet.entropy", Dimension::specific_entropy, [](R r) -> O { return r.inlet.entropy; }},
       {"inlet.density", Dimension::density, [](R r) -> O { return r.inlet.density; }},
       {"inlet.quality", Dimension::fraction, [](R r) -> O { return r.inlet.quality; }},
       {"outlet.pressure", Dimension::pressure, [](R r) -> O { return r.outlet.pressure; }},
       {"outlet.temperature", Dimension::temperature, [](R r) -> O { return r.outlet.temperature; }},
       {"outlet.enthalpy", Dimension::specific_energy, [](R r) -> O { return r.outlet.enthalpy; }},
-      {"outlet.entropy", Dimension::specific_heat, [](R r) -> O { return r.outlet.entropy; }},
+      {"outlet.entropy", Dimension::specific_entropy, [](R r) -> O { return r.outlet.entropy; }},
       {"outlet.density", Dimension::density, [](R r) -> O { return r.outlet.density; }},
       {"outlet.quality", Dimension::fraction, [](R r) -> O { return r.outlet.quality; }},
       {"outlet_isentropic.temperature", Dimension::temperature,

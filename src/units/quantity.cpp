@@ -227,9 +227,15 @@ std::string known_units(Dimension d) {
   return list;
 }
 
+// The dimension whose units a quantity is written in: a specific entropy is written
+// in the units of a specific heat.
+Dimension unit_dimension(Dimension d) {
+  return d == Dimension::specific_entropy ? Dimension::specific_heat : d;
+}
+
 // "for a pressure; known units: Pa, kPa, ..."
 std::string for_dimension(Dimension d) {
-  return fmt::format("for a {}; known units: {}", dimension_name(d), known_units(d));
+  return fmt::format("for a {}; known units: {}", dimension_name(d), known_units(unit_dimension(d)));
 }
 
 const UnitInfo& find_unit_of(std::string_view unit, Dimension expected, const std::string& prefix) {
@@ -250,7 +256,7 @@ double checked_barometer(double barometer) {
 }
 
 // The SI value of `number` in `unit`, with the checks that parse() documents.
-double convert(double number, const UnitInfo& unit, const Subject& subject,
+double convert(double number, const UnitInfo& unit, Dimension expected, const Subject& subject,
                const ParseContext& context, ParseNotes& notes) {
   if (!std::isfinite(number)) refuse(subject.quoted() + ": not a finite number");
   double si = unit.scale * number + unit.offset;
@@ -261,7 +267,7 @@ double convert(double number, const UnitInfo& unit, const Subject& subject,
   }
   if (!std::isfinite(si)) refuse(subject.quoted() + ": out of range (the value in SI units is not finite)");
 
-  switch (unit.dimension) {
+  switch (expected) {
     case Dimension::pressure:
       if (!(si > 0)) {
         if (!unit.gauge) refuse(subject.quoted() + ": absolute pressure must be above 0");
@@ -291,7 +297,8 @@ double convert(double number, const UnitInfo& unit, const Subject& subject,
         refuse(fmt::format("{}: a {} must be above 0", subject.quoted(), dimension_name(unit.dimension)));
       }
       break;
-    case Dimension::specific_energy:  // enthalpies may be negative on a model's reference state
+    case Dimension::specific_energy:   // enthalpies may be negative on a model's reference state
+    case Dimension::specific_entropy:  // so may entropies
     case Dimension::fraction:         // ranges depend on the key: the caller checks them
       break;
   }
@@ -307,11 +314,11 @@ double to_si_checked(double number, std::string_view unit, Dimension expected,
     return number + 0.0;
   }
   const UnitInfo& info = find_unit_of(unit, expected, subject.quoted() + ": ");
-  if (info.dimension != expected) {
+  if (info.dimension != unit_dimension(expected)) {
     refuse(fmt::format("{}: a {} unit where a {} belongs", subject.quoted(),
                        dimension_name(info.dimension), dimension_name(expected)));
   }
-  return convert(number, info, subject, context, notes);
+  return convert(number, info, expected, subject, context, notes);
 }
 
 }  // namespace
@@ -327,6 +334,7 @@ std::string_view dimension_name(Dimension d) {
     case Dimension::specific_energy: return "specific energy";
     case Dimension::length: return "length";
     case Dimension::specific_heat: return "specific heat";
+    case Dimension::specific_entropy: return "specific entropy";
     case Dimension::density: return "density";
     case Dimension::molar_mass: return "molar mass";
     case Dimension::fraction: return "fraction";
@@ -344,7 +352,7 @@ const UnitInfo* find_unit(std::string_view symbol) {
 std::vector<const UnitInfo*> units_of(Dimension d) {
   std::vector<const UnitInfo*> out;
   for (const Entry& e : kUnits) {
-    if (e.info.dimension == d) out.push_back(&e.info);
+    if (e.info.dimension == unit_dimension(d)) out.push_back(&e.info);
   }
   return out;
 }
@@ -405,7 +413,7 @@ double from_si(double si_value, std::string_view unit, Dimension expected,
   const std::string_view u = trim(unit);
   if (u.empty() && expected == Dimension::fraction) return si_value;
   const UnitInfo& info = find_unit_of(u, expected, "");
-  if (info.dimension != expected) {
+  if (info.dimension != unit_dimension(expected)) {
     refuse(fmt::format("\"{}\" is a {} unit where a {} belongs", u, dimension_name(info.dimension),
                        dimension_name(expected)));
   }

@@ -32,7 +32,8 @@ enum class Dimension {
   power,
   specific_energy,       // J/kg (also heads given as energy per mass)
   length,                // m (pump head as a height)
-  specific_heat,         // J/(kg K), also gas constants
+  specific_heat,         // J/(kg K), also gas constants; above 0
+  specific_entropy,      // J/(kg K) in the units of a specific heat; any sign
   density,
   molar_mass,            // kg/mol
   fraction,              // efficiencies, mole fractions: 0.845 or "84.5 %"

@@ -1,0 +1,112 @@
+#!/usr/bin/env bash
+# The rate command end to end: exit codes, stdin, -o, formats, messages.
+# Run by ctest from the repository root as: bash tests/cli/rate.sh <shaftwork binary>
+set -u
+bin=$1
+tmp=$(mktemp -d)
+trap 'rm -rf "$tmp"' EXIT
+passed=0
+failed=0
+
+expect() {  # expect NAME CONDITION-RESULT(0 = ok) DETAIL
+  if [ "$2" -eq 0 ]; then
+    passed=$((passed + 1))
+  else
+    failed=$((failed + 1))
+    echo "FAILED: $1 ${3:-}"
+  fi
+}
+
+# Every bundled example rates, exit 0, in all three formats.
+for format in table json csv; do
+  "$bin" rate --format "$format" examples/*.json >"$tmp/all.$format" 2>"$tmp/all.err"
+  expect "examples rate as $format" $? "$(cat "$tmp/all.err")"
+done
+# No NaN or infinity anywhere in what the examples print.
+! grep -iqE '(^|[^a-z])(nan|inf)([^a-z]|$)' "$tmp"/all.*
+expect "no nan/inf in example output" $?
+
+# The JSON carries the contract's keys for every result.
+/usr/bin/python3 - "$tmp/all.json" <<'PY'
+import json, sys
+doc = json.load(open(sys.argv[1]))
+keys = ["id", "status", "machine", "model", "solved_for", "inlet", "outlet", "outlet_isentropic",
+        "mass_flow", "power", "fluid_power", "efficiency", "head", "pressure_ratio", "warnings"]
+for r in doc["results"]:
+    missing = [k for k in keys if k not in r]
+    assert not missing, (r["id"], missing)
+    for side in ("inlet", "outlet"):
+        for k in ("pressure", "temperature", "enthalpy", "entropy", "density"):
+            assert k in r[side], (r["id"], side, k)
+    assert set(r["efficiency"]) >= {"isentropic", "polytropic"}
+    assert set(r["head"]) >= {"isentropic", "polytropic"}
+    assert r["pressure_ratio"] >= 1
+    if r["machine"] == "pump":
+        assert "head_height" in r and "volume_flow" in r
+PY
+expect "json results carry the contract keys" $?
+
+# Standard input.
+"$bin" rate --format json - <examples/design-cases.json >"$tmp/stdin.json"
+expect "rate - reads standard input" $?
+cmp -s "$tmp/stdin.json" <("$bin" rate --format json examples/design-cases.json)
+expect "stdin and file give the same output" $?
+
+# One bad case among good ones: exit 1, the good ones still rated, the bad one named.
+cat >"$tmp/mixed.json" <<'JSON'
+{"cases": [
+  {"id": "good", "machine": "compressor", "fluid": "air", "inlet": {"pressure": "1 bar", "temperature": "20 degC"},
+   "outlet": {"pressure": "3 bar"}, "efficiency": 0.8, "mass_flow": "1 kg/s"},
+  {"id": "bad", "machine": "compressor", "fluid": "air", "inlet": {"pressure": "1 bar", "temperature": "20 degC"},
+   "outlet": {"pressure": "3 degC"}, "efficiency": 0.8, "mass_flow": "1 kg/s"}
+]}
+JSON
+"$bin" rate --format json "$tmp/mixed.json" >"$tmp/mixed.out" 2>"$tmp/mixed.err"
+expect "a failed case exits 1" $([ $? -eq 1 ]; echo $?)
+grep -q '"status": "ok"' "$tmp/mixed.out"
+expect "the good case is still rated" $?
+grep -qF 'error: case "bad": outlet.pressure: "3 degC": a temperature unit where a pressure belongs' "$tmp/mixed.err"
+expect "the bad case's message names the case, the key and the unit" $? "$(cat "$tmp/mixed.err")"
+
+# A file that is not JSON: exit 2, the file and the place named.
+printf '{"cases": [\n  {"id": 1,,}\n' >"$tmp/broken.json"
+"$bin" rate "$tmp/broken.json" >/dev/null 2>"$tmp/broken.err"
+expect "not JSON exits 2" $([ $? -eq 2 ]; echo $?)
+grep -q "broken.json: not valid JSON: parse error at line 2" "$tmp/broken.err"
+expect "not-JSON message names file and line" $? "$(cat "$tmp/broken.err")"
+
+# A missing file: exit 2.
+"$bin" rate "$tmp/none.json" >/dev/null 2>"$tmp/none.err"
+expect "missing file exits 2" $([ $? -eq 2 ]; echo $?)
+grep -qF "none.json: cannot read the file" "$tmp/none.err"
+expect "missing file message" $?
+
+# -o writes the whole output to the file and nothing to stdout.
+"$bin" rate --format json -o "$tmp/out.json" examples/design-cases.json >"$tmp/o.stdout"
+expect "-o exits 0" $?
+[ ! -s "$tmp/o.stdout" ] && cmp -s "$tmp/out.json" "$tmp/stdin.json"
+expect "-o file holds the results, stdout is empty" $?
+# -o into a directory that does not exist: exit 2, nothing left behind.
+"$bin" rate -o "$tmp/no/such/dir/out.json" examples/design-cases.json 2>"$tmp/odir.err"
+expect "-o to a missing directory exits 2" $([ $? -eq 2 ]; echo $?)
+
+# A duplicate key makes the file unusable.
+printf '{"machine": "pump", "machine": "compressor"}' >"$tmp/dup.json"
+"$bin" rate "$tmp/dup.json" >/dev/null 2>"$tmp/dup.err"
+expect "duplicate key exits 2" $([ $? -eq 2 ]; echo $?)
+grep -qF 'the key "machine" appears twice in one object; keep one' "$tmp/dup.err"
+expect "duplicate key message" $?
+
+# A misspelt key is warned about, not silently ignored.
+sed 's/"mechanical_efficiency"/"mechanical_efficency"/' examples/plant-air-compressor.json >"$tmp/typo.json"
+"$bin" rate --format json "$tmp/typo.json" >"$tmp/typo.out"
+grep -qF 'unknown key \"mechanical_efficency\" ignored' "$tmp/typo.out"
+expect "misspelt key warned" $?
+
+# US units in the table.
+"$bin" rate --units us examples/plant-air-compressor.json >"$tmp/us.txt"
+grep -q "psia\|psig\|degF" "$tmp/us.txt" && grep -q " hp" "$tmp/us.txt"
+expect "--units us shows US units" $?
+
+echo "$passed passed, $failed failed"
+[ "$failed" -eq 0 ]
