@@ -74,22 +74,31 @@ State single_phase(const Point& pt, double p) {
 
 // ---- Temperature solves in regions 1, 2 and 5 ----------------------------------------------
 
-// Finds T in [low, high] with value(eval(p, T)) = target by Newton's method from T0 (the
-// backward equation's value), falling back on a bracketed Newton over [low, high] when a
-// step leaves the bracket. Empty when the target lies outside [value(low), value(high)].
+// Newton's method alone for T in [low, high] with value(eval(p, T)) = target, from T0 (the
+// backward equation's value): the state when it converges without leaving the bracket,
+// else empty.
 template <class Eval>
-std::optional<Point> solve_temperature(Eval eval, double p, Given given, double target, double T0,
-                                       double low, double high) {
+std::optional<Point> newton_temperature(Eval eval, double p, Given given, double target, double T0,
+                                        double low, double high) {
   double T = std::clamp(T0, low, high);
   for (int i = 0; i < kNewtonSteps; ++i) {
     const Point pt = eval(p, T);
     const double step = (value_of(pt, given) - target) / slope_of(pt, given);
     if (std::fabs(step) <= kNegligible * T) return pt;
     const double next = T - step;
-    if (!(next >= low && next <= high)) break;  // also catches NaN
+    if (!(next >= low && next <= high)) return std::nullopt;  // also catches NaN
     if (std::fabs(step) <= kTolerance * T) return eval(p, next);
     T = next;
   }
+  return std::nullopt;
+}
+
+// As newton_temperature, falling back on a bracketed Newton over [low, high] when Newton's
+// method alone fails. Empty when the target lies outside [value(low), value(high)].
+template <class Eval>
+std::optional<Point> solve_temperature(Eval eval, double p, Given given, double target, double T0,
+                                       double low, double high) {
+  if (auto pt = newton_temperature(eval, p, given, target, T0, low, high)) return pt;
   const double f_low = value_of(eval(p, low), given) - target;
   const double f_high = value_of(eval(p, high), given) - target;
   if (f_low > 0 || f_high < 0) return std::nullopt;
@@ -97,7 +106,7 @@ std::optional<Point> solve_temperature(Eval eval, double p, Given given, double 
     const Point pt = eval(p, t);
     return numerics::ValueAndSlope{value_of(pt, given) - target, slope_of(pt, given)};
   };
-  T = numerics::newton_bracketed(f, T0, low, high, 0.01 * kTolerance, 200,
+  const double T = numerics::newton_bracketed(f, T0, low, high, 0.01 * kTolerance, 200,
                                  "iapws-if97: temperature");
   return eval(p, T);
 }
@@ -229,8 +238,44 @@ Point region1_eval(double p, double T) { return if97::region1(p, T); }
 Point region2_eval(double p, double T) { return if97::region2(p, T); }
 Point region5_eval(double p, double T) { return if97::region5(p, T); }
 
+// Starting temperatures from the backward equations of regions 1 and 2.
+double backward_liquid(double p, Given given, double target) {
+  return given == Given::enthalpy ? if97::region1_T_ph(p, target) : if97::region1_T_ps(p, target);
+}
+double backward_vapour(double p, Given given, double target) {
+  return given == Given::enthalpy ? if97::region2_T_ph(p, target) : if97::region2_T_ps(p, target);
+}
+
+// The fast path of (p, h) and (p, s) outside region 3: Newton's method from the backward
+// equation of the phase the target suggests, kept on that phase's side of T_split (the
+// saturation temperature, or 623.15 K and the B23 temperature above psat(623.15 K)).
+// A root found there settles the phase without evaluating the saturated states: h and s
+// rise with T at constant p, so a region 2 root at or above T_vapour means the target is
+// at or above the vapour's value there, and a region 1 root at or below T_liquid means it
+// is at or below the liquid's. Empty when the guess or Newton's method fails; the caller
+// then classifies the target against the saturated (or boundary) states.
+std::optional<Point> fast_single_phase(double p, Given given, double target, double T_liquid,
+                                       double T_vapour) {
+  // Between the liquid's and the vapour's values for any p up to psat(623.15 K).
+  const double middle = given == Given::enthalpy ? 2.1e6 : 4.5e3;
+  if (target > middle) {
+    const double T0 = backward_vapour(p, given, target);
+    // Far outside its region (in the wet region, say) the backward equation extrapolates
+    // wildly, to 10^5 K and more: such a start is no guess at all.
+    if (T0 > T_vapour && T0 <= if97::kT25) {
+      return newton_temperature(region2_eval, p, given, target, T0, T_vapour, if97::kT25);
+    }
+  } else {
+    const double T0 = backward_liquid(p, given, target);
+    if (T0 < T_liquid && T0 >= if97::kTmin) {
+      return newton_temperature(region1_eval, p, given, target, T0, if97::kTmin, T_liquid);
+    }
+  }
+  return std::nullopt;
+}
+
 Point solve_region1(double p, Given given, double target, double T_high) {
-  const double T0 = given == Given::enthalpy ? if97::region1_T_ph(p, target) : if97::region1_T_ps(p, target);
+  const double T0 = backward_liquid(p, given, target);
   const auto pt = solve_temperature(region1_eval, p, given, target, T0, if97::kTmin, T_high);
   if (!pt) outside(describe(given, target), p);  // below the liquid at 273.15 K
   return *pt;
@@ -238,7 +283,7 @@ Point solve_region1(double p, Given given, double target, double T_high) {
 
 // Vapour at or above T_low: region 2 up to 1073.15 K, region 5 above (p <= 50 MPa).
 Point solve_vapour(double p, Given given, double target, double T_low) {
-  const double T0 = given == Given::enthalpy ? if97::region2_T_ph(p, target) : if97::region2_T_ps(p, target);
+  const double T0 = backward_vapour(p, given, target);
   if (const auto pt = solve_temperature(region2_eval, p, given, target, T0, T_low, if97::kT25)) {
     return *pt;
   }
@@ -265,6 +310,7 @@ State solve_ph_or_ps(double p, Given given, double target) {
   if (p <= if97::kPsat623) {
     if (p < if97::kPsatTmin) return single_phase(solve_vapour(p, given, target, if97::kTmin), p);
     const double Ts = if97::saturation_temperature(p);
+    if (const auto pt = fast_single_phase(p, given, target, Ts, Ts)) return single_phase(*pt, p);
     const Point vapour = if97::region2(p, Ts);
     if (target >= value_of(vapour, given)) return single_phase(solve_vapour(p, given, target, Ts), p);
     const Point liquid = if97::region1(p, Ts);
@@ -273,10 +319,11 @@ State solve_ph_or_ps(double p, Given given, double target) {
     return wet(p, Saturation{Ts, liquid, vapour}, x);
   }
 
+  const double T23 = if97::b23_temperature(p);
+  if (const auto pt = fast_single_phase(p, given, target, if97::kT13, T23)) return single_phase(*pt, p);
   if (target <= value_of(if97::region1(p, if97::kT13), given)) {
     return single_phase(solve_region1(p, given, target, if97::kT13), p);
   }
-  const double T23 = if97::b23_temperature(p);
   if (target >= value_of(if97::region2(p, T23), given)) {
     return single_phase(solve_vapour(p, given, target, T23), p);
   }

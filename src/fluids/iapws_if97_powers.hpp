@@ -41,12 +41,16 @@ class Powers {
   static_assert(Low <= 0 && High >= 0, "the range must hold the exponent 0");
 
  public:
+  // x^k = x^(k/2) * x^(k - k/2): every power is two earlier ones multiplied, so the chain
+  // of dependent multiplications is log2(High) long rather than High, and the processor
+  // overlaps the rest.
   explicit Powers(double x) {
     v_[-Low] = 1.0;
-    for (int k = 1; k <= High; ++k) v_[k - Low] = v_[k - 1 - Low] * x;
+    if constexpr (High >= 1) v_[1 - Low] = x;
+    for (int k = 2; k <= High; ++k) v_[k - Low] = v_[k / 2 - Low] * v_[k - k / 2 - Low];
     if constexpr (Low < 0) {
-      const double inverse = 1.0 / x;
-      for (int k = -1; k >= Low; --k) v_[k - Low] = v_[k + 1 - Low] * inverse;
+      v_[-1 - Low] = 1.0 / x;
+      for (int k = -2; k >= Low; --k) v_[k - Low] = v_[k / 2 - Low] * v_[k - k / 2 - Low];
     }
   }
   double operator[](int k) const { return v_[k - Low]; }
@@ -78,21 +82,35 @@ struct WeightedSums {
   double sij = 0;  // sum I_i J_i t_i
 };
 
+namespace weighted {
+
+inline void add(WeightedSums& w, const Term& t, double term) {
+  const auto i = static_cast<double>(t.i);
+  const auto j = static_cast<double>(t.j);
+  w.s += term;
+  w.si += i * term;
+  w.sii += i * (i - 1.0) * term;
+  w.sj += j * term;
+  w.sjj += j * (j - 1.0) * term;
+  w.sij += i * j * term;
+}
+
+}  // namespace weighted
+
+// Even and odd terms go to separate accumulators, which halves the chains of dependent
+// additions (the loop is bound by their latency, not by arithmetic).
 template <std::size_t N, class PX, class PY>
 WeightedSums weighted_sums(const Term (&terms)[N], const PX& px, const PY& py) {
-  WeightedSums w;
-  for (const Term& t : terms) {
-    const double term = t.n * px[t.i] * py[t.j];
-    const auto i = static_cast<double>(t.i);
-    const auto j = static_cast<double>(t.j);
-    w.s += term;
-    w.si += i * term;
-    w.sii += i * (i - 1.0) * term;
-    w.sj += j * term;
-    w.sjj += j * (j - 1.0) * term;
-    w.sij += i * j * term;
+  WeightedSums even;
+  WeightedSums odd;
+  std::size_t k = 0;
+  for (; k + 1 < N; k += 2) {
+    weighted::add(even, terms[k], terms[k].n * px[terms[k].i] * py[terms[k].j]);
+    weighted::add(odd, terms[k + 1], terms[k + 1].n * px[terms[k + 1].i] * py[terms[k + 1].j]);
   }
-  return w;
+  if (k < N) weighted::add(even, terms[k], terms[k].n * px[terms[k].i] * py[terms[k].j]);
+  return {even.s + odd.s,   even.si + odd.si,   even.sii + odd.sii,
+          even.sj + odd.sj, even.sjj + odd.sjj, even.sij + odd.sij};
 }
 
 // The powers of x over the I range (or y over the J range) of `Table`, e.g.
