@@ -173,8 +173,8 @@ TEST_CASE("NASA CH4 agrees with JANAF at 300 K and departs from it at 1000 K (do
   CHECK((gas.from_pt(1e5, 300.0).enthalpy - gas.from_pt(1e5, 298.15).enthalpy) * M / 1000 ==
         Approx(0.066).margin(0.001));
   // At 1000 K JANAF C-067 gives cp 71.795 J/(mol K) (from memory); the NASA record
-  // (Gurvich 1991, code g 8/99) is 2.6 % higher. The two sources treat methane's
-  // anharmonic vibrations differently; NASA follows Gurvich. Pinned, not hidden.
+  // (Gurvich 1991, code g 8/99) is 2.6 % higher: the two evaluations differ, and the
+  // model uses NASA's unchanged. Pinned here, not hidden; docs/properties.md says so.
   CHECK(gas.from_pt(1e5, 1000.0).cp * M / 71.795 == Approx(1.026).margin(0.004));
 }
 
