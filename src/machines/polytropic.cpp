@@ -1,5 +1,6 @@
 #include "shaftwork/machines/polytropic.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include <fmt/format.h>
@@ -83,7 +84,7 @@ double polytropic_outlet_enthalpy(const fluids::FluidModel& fluid, const fluids:
 }
 
 double polytropic_efficiency(const fluids::FluidModel& fluid, const fluids::State& inlet,
-                             const fluids::State& outlet) {
+                             const fluids::State& outlet, double isentropic_efficiency) {
   const double p1 = inlet.pressure;
   const double p2 = outlet.pressure;
   const bool compression = p2 > p1;
@@ -103,7 +104,10 @@ double polytropic_efficiency(const fluids::FluidModel& fluid, const fluids::Stat
   };
   numerics::RootOptions options;
   options.relative_tolerance = 1e-11;
-  return numerics::find_root(miss, 0.02, 1.0, "polytropic efficiency", options).x;
+  // eta_p lies near eta_s (the reheat effect moves it by a few points); a bracket
+  // from half of eta_s keeps the trial paths in the neighbourhood of the real one.
+  const double low = isentropic_efficiency > 0 ? std::max(0.02, 0.5 * isentropic_efficiency) : 0.02;
+  return numerics::find_root(miss, low, 1.0, "polytropic efficiency", options).x;
 }
 
 }  // namespace shaftwork::machines

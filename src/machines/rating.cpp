@@ -59,6 +59,18 @@ OutletFromEfficiency isentropic_outlet(const FluidModel& fluid, MachineKind mach
   return {h2, s2};
 }
 
+// The isentropic part of efficiencies_of: cheap, and checked before the polytropic
+// efficiency is sought (which has no solution when eta_s is outside (0, 1]).
+ProcessEfficiencies isentropic_efficiency_of(const FluidModel& fluid, MachineKind machine, const State& inlet,
+                                             const State& outlet) {
+  ProcessEfficiencies e;
+  e.isentropic_outlet = fluid.from_ps(outlet.pressure, inlet.entropy);
+  const double dh = outlet.enthalpy - inlet.enthalpy;
+  const double dhs = e.isentropic_outlet.enthalpy - inlet.enthalpy;
+  e.isentropic = compresses(machine) ? dhs / dh : dh / dhs;
+  return e;
+}
+
 // Scans [low, high] (in log space when `log_scale`) for the first sign change of f,
 // then closes on it with TOMS 748. Points where f cannot be evaluated (a state
 // outside the model's range) are skipped. Throws bad_input with `no_solution` when
@@ -423,7 +435,7 @@ Rating Solver::run() {
   const State outlet = T2_unknown ? fluid_.from_ph(p2, h2) : outlet_given(p2);
 
   // --- Efficiencies, checked against what a real machine can do. -----------------
-  const ProcessEfficiencies eff = efficiencies_of(fluid_, in_.machine, inlet, outlet);
+  ProcessEfficiencies eff = isentropic_efficiency_of(fluid_, in_.machine, inlet, outlet);
   const double mass_flow = flow_unknown ? 0.0 : mass_flow_for(inlet);
   if (!(eff.isentropic > 0 && eff.isentropic <= 1 + 1e-9)) {
     const bool comp = compresses(in_.machine);
@@ -445,6 +457,8 @@ Rating Solver::run() {
                        eff.isentropic, show(Quantity::outlet_temperature, outlet.temperature),
                        show(Quantity::outlet_temperature, eff.isentropic_outlet.temperature)));
   }
+
+  eff.polytropic = polytropic_efficiency(fluid_, inlet, outlet, eff.isentropic);
 
   // --- Flow and power. -------------------------------------------------------------
   const double rise = std::fabs(outlet.enthalpy - inlet.enthalpy);
@@ -512,12 +526,8 @@ OutletFromEfficiency outlet_from_efficiency(const FluidModel& fluid, MachineKind
 
 ProcessEfficiencies efficiencies_of(const FluidModel& fluid, MachineKind machine, const State& inlet,
                                     const State& outlet) {
-  ProcessEfficiencies e;
-  e.isentropic_outlet = fluid.from_ps(outlet.pressure, inlet.entropy);
-  const double dh = outlet.enthalpy - inlet.enthalpy;
-  const double dhs = e.isentropic_outlet.enthalpy - inlet.enthalpy;
-  e.isentropic = compresses(machine) ? dhs / dh : dh / dhs;
-  e.polytropic = polytropic_efficiency(fluid, inlet, outlet);
+  ProcessEfficiencies e = isentropic_efficiency_of(fluid, machine, inlet, outlet);
+  e.polytropic = polytropic_efficiency(fluid, inlet, outlet, e.isentropic);
   return e;
 }
 

@@ -22,8 +22,9 @@ double polytropic_outlet_enthalpy(const fluids::FluidModel& fluid, const fluids:
                                   double p2, double eta_p);
 
 // Polytropic efficiency of the process inlet -> outlet (outlet.pressure != inlet.pressure).
-// Throws bad_input when no efficiency in (0, 1] reaches the outlet.
+// `isentropic_efficiency` of the same process, when known, narrows the search of the
+// stepwise method to [eta_s / 2, 1]. Throws bad_input when no efficiency reaches the outlet.
 double polytropic_efficiency(const fluids::FluidModel& fluid, const fluids::State& inlet,
-                             const fluids::State& outlet);
+                             const fluids::State& outlet, double isentropic_efficiency = 0);
 
 }  // namespace shaftwork::machines
