@@ -326,6 +326,7 @@ NasaPolynomialGas::NasaPolynomialGas(const std::vector<Component>& components, C
 State NasaPolynomialGas::from_pt(double p, double T) const {
   const Impl& m = *impl_;
   detail::check_pressure(p, m.label.c_str());
+  detail::check_finite(T, "temperature", m.label.c_str());
   detail::check_temperature(T, m.range, m.label.c_str());
   return m.state(p, T);
 }

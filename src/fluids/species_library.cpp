@@ -202,7 +202,7 @@ class Builder {
            fmt::format("{} is defined twice (first on line {})", sp.name, *seen));
     }
     lines_.emplace_back(sp.name, record_line);
-    species_.push_back(std::move(sp));
+    species.push_back(std::move(sp));
   }
 
   void add_alias(const std::string& alias, const std::string& name, int line) {
@@ -211,11 +211,11 @@ class Builder {
            fmt::format("alias {} of {} is already a name or alias on line {}", alias, name, *seen));
     }
     lines_.emplace_back(alias, line);
-    aliases_.emplace_back(alias, name);
+    aliases.emplace_back(alias, name);
   }
 
-  std::vector<NasaSpecies> species_;
-  std::vector<std::pair<std::string, std::string>> aliases_;
+  std::vector<NasaSpecies> species;                          // in the order read
+  std::vector<std::pair<std::string, std::string>> aliases;  // {alias, species name}
 
  private:
   std::optional<int> first_line_of(const std::string& name) const {
@@ -377,8 +377,8 @@ SpeciesLibrary SpeciesLibrary::parse_own_format(std::string_view text, const std
                      block->species.name, block->first_line));
   }
   SpeciesLibrary library;
-  library.species_ = std::move(builder.species_);
-  library.aliases_ = std::move(builder.aliases_);
+  library.species_ = std::move(builder.species);
+  library.aliases_ = std::move(builder.aliases);
   return library;
 }
 
@@ -523,8 +523,8 @@ SpeciesLibrary SpeciesLibrary::parse_nasa9(std::string_view text, const std::str
     i = start + 2 + 3 * count;
   }
   SpeciesLibrary library;
-  library.species_ = std::move(builder.species_);
-  library.aliases_ = std::move(builder.aliases_);
+  library.species_ = std::move(builder.species);
+  library.aliases_ = std::move(builder.aliases);
   return library;
 }
 
@@ -701,8 +701,8 @@ SpeciesLibrary SpeciesLibrary::parse_nasa7(std::string_view text, const std::str
     i = start + 4;
   }
   SpeciesLibrary library;
-  library.species_ = std::move(builder.species_);
-  library.aliases_ = std::move(builder.aliases_);
+  library.species_ = std::move(builder.species);
+  library.aliases_ = std::move(builder.aliases);
   return library;
 }
 

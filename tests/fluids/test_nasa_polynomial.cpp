@@ -381,6 +381,9 @@ TEST_CASE("out-of-range states are refused with the message users see") {
         "nasa-polynomial N2: pressure must be finite and above 0 Pa, got -1 Pa");
   CHECK(std::string(error_of([&] { n2.from_ph(1e5, NAN); }).what()) ==
         "nasa-polynomial N2: enthalpy must be a finite number");
+  Error not_a_number = error_of([&] { n2.from_pt(1e5, NAN); });
+  CHECK(not_a_number.kind() == ErrorKind::bad_input);
+  CHECK(std::string(not_a_number.what()) == "nasa-polynomial N2: temperature must be a finite number");
 }
 
 TEST_CASE("a mixture's range is the intersection of its species' ranges") {
