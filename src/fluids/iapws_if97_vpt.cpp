@@ -3,7 +3,10 @@
 #include <cmath>
 #include <cstddef>
 
+#include <fmt/format.h>
+
 #include "iapws_if97_coefficients.hpp"
+#include "shaftwork/error.hpp"
 #include "shaftwork/fluids/iapws_if97_equations.hpp"
 
 namespace shaftwork::fluids::if97 {
@@ -181,6 +184,10 @@ char region3_subregion_pt(double p, double T, Side side) {
 // SR5-05 Eq. 4: v/v* = [sum n_i ((pi - a)^c)^I_i ((theta - b)^d)^J_i]^e, and Eq. 5 for 3n:
 // v/v* = exp[sum n_i (pi - a)^I_i (theta - b)^J_i], pi = p/p*, theta = T/T* (Table 4).
 double region3_v_pt_in(char subregion, double p, double T) {
+  if (subregion < 'a' || subregion > 'z') {
+    throw Error(ErrorKind::bad_input,
+                fmt::format("iapws-if97: SR5-05 has subregions 3a to 3z, not 3{}", subregion));
+  }
   const auto k = static_cast<std::size_t>(subregion - 'a');
   const coef::VptReducing& r = coef::kVptReducing[k];
   double x = p / 1e6 / r.p_star - r.a;

@@ -3,9 +3,12 @@
 // subregions 3a-3t, Eqs. 4 and 5), Table 11 (the auxiliary boundaries T3uv and T3wx) and
 // Table 13 (v(p,T) of the auxiliary subregions 3u-3z). Each row also checks that the
 // subregion selection of SR5-05 Tables 2 and 10 picks the subregion the table names.
+#include <string>
+
 #include <catch2/catch.hpp>
 
 #include "fluids/if97_printed_digits.hpp"
+#include "shaftwork/error.hpp"
 #include "shaftwork/fluids/iapws_if97_equations.hpp"
 
 using shaftwork::test::PrintedDigits;
@@ -91,4 +94,14 @@ TEST_CASE("SR5-05 Table 13: v(p,T) of the auxiliary subregions 3u-3z", "[if97][v
       {'z', 22, 646.89, 3.798732962e-3},   {'z', 22.064, 647.15, 3.701940009e-3},
   };
   check_rows("SR5-05 Table 13", std::begin(rows), std::end(rows));
+}
+
+TEST_CASE("SR5-05 subregions outside 3a-3z are refused", "[if97][vpt]") {
+  try {
+    if97::region3_v_pt_in('A', 25e6, 650);
+    FAIL("no error thrown");
+  } catch (const shaftwork::Error& e) {
+    CHECK(e.kind() == shaftwork::ErrorKind::bad_input);
+    CHECK(std::string(e.what()) == "iapws-if97: SR5-05 has subregions 3a to 3z, not 3A");
+  }
 }

@@ -108,7 +108,7 @@ double region3_v_ps(double p, double s);  // SR3-03 Eqs. 8, 9; m3/kg
 enum class Side { by_temperature, liquid, vapour };
 char region3_subregion_pt(double p, double T, Side side = Side::by_temperature);
 double region3_v_pt(double p, double T, Side side = Side::by_temperature);  // m3/kg
-double region3_v_pt_in(char subregion, double p, double T);                 // m3/kg
+double region3_v_pt_in(char subregion, double p, double T);  // m3/kg; bad_input unless a..z
 
 // SR5-05 boundary equations T3xy(p) [K] between the subregions (SR5-05 Eqs. 2 and 3,
 // Table 1; 3uv and 3wx from its auxiliary equations); p in Pa.
