@@ -138,7 +138,7 @@ ordered_json result_json(const CaseOutcome& o) {
   j["machine"] = machines::machine_name(r.machine);
   if (o.input) j["fluid"] = o.input->fluid_name;
   j["model"] = r.model;
-  j["solved_for"] = r.solved_for;
+  j["solved_for"] = r.solved_for.keys();
   j["inlet"] = state_json(r.inlet, true);
   j["outlet"] = state_json(r.outlet, true);
   j["outlet_isentropic"] = state_json(r.outlet_isentropic, false);
@@ -205,7 +205,7 @@ void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, Unit
     const std::string warnings = fmt::format("{}", fmt::join(o.warnings, "; "));
     if (o.ok()) {
       const Rating& r = *o.rating;
-      const std::string solved = fmt::format("{}", fmt::join(r.solved_for, " "));
+      const std::string solved = fmt::format("{}", fmt::join(r.solved_for.keys(), " "));
       out << machines::machine_name(r.machine) << ',' << csv_field(o.input ? o.input->fluid_name : "") << ','
           << r.model << ',' << solved;
       for (const Column& c : columns()) {
@@ -236,7 +236,7 @@ void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, Un
                        in ? in->fluid_name : r.model, r.model);
 
     auto solved = [&](const char* key) {
-      return std::find(r.solved_for.begin(), r.solved_for.end(), key) != r.solved_for.end();
+      return r.solved_for.contains(std::string_view(key));
     };
     // A line: label, value with unit, and how the value came about.
     auto line = [&](const char* label, double si, Dimension d, const char* mark, const std::string& unit_given) {

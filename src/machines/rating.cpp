@@ -40,6 +40,27 @@ const char* quantity_key(Quantity q) {
   return "?";
 }
 
+bool SolvedFor::contains(Quantity q) const { return std::find(begin(), end(), q) != end(); }
+
+bool SolvedFor::contains(std::string_view key) const {
+  return std::any_of(begin(), end(), [key](Quantity q) { return key == quantity_key(q); });
+}
+
+std::vector<std::string> SolvedFor::keys() const {
+  std::vector<std::string> out;
+  out.reserve(size());
+  for (Quantity q : *this) out.emplace_back(quantity_key(q));
+  return out;
+}
+
+bool operator==(const SolvedFor& solved, const std::vector<std::string>& keys) {
+  if (solved.size() != keys.size()) return false;
+  for (std::size_t i = 0; i < keys.size(); ++i) {
+    if (keys[i] != quantity_key(solved.begin()[i])) return false;
+  }
+  return true;
+}
+
 namespace {
 
 [[noreturn]] void refuse(const std::string& message) { throw Error(ErrorKind::bad_input, message); }
@@ -61,10 +82,14 @@ OutletFromEfficiency isentropic_outlet(const FluidModel& fluid, MachineKind mach
 
 // The isentropic part of efficiencies_of: cheap, and checked before the polytropic
 // efficiency is sought (which has no solution when eta_s is outside (0, 1]).
+// `known_isentropic_outlet`, when the caller already holds the state at (p2, s1),
+// saves computing it a second time.
 ProcessEfficiencies isentropic_efficiency_of(const FluidModel& fluid, MachineKind machine, const State& inlet,
-                                             const State& outlet) {
+                                             const State& outlet,
+                                             const State* known_isentropic_outlet = nullptr) {
   ProcessEfficiencies e;
-  e.isentropic_outlet = fluid.from_ps(outlet.pressure, inlet.entropy);
+  e.isentropic_outlet =
+      known_isentropic_outlet ? *known_isentropic_outlet : fluid.from_ps(outlet.pressure, inlet.entropy);
   const double dh = outlet.enthalpy - inlet.enthalpy;
   const double dhs = e.isentropic_outlet.enthalpy - inlet.enthalpy;
   e.isentropic = compresses(machine) ? dhs / dh : dh / dhs;
@@ -174,7 +199,7 @@ class Solver {
   double solve_pressure(bool inlet_side, double other_pressure,
                         const std::function<double(double)>& residual) const;
 
-  std::string unknown_list(const std::vector<Quantity>& unknown) const;
+  std::string unknown_list(const SolvedFor& unknown) const;
 
   const RatingInput& in_;
   const FluidModel& fluid_;
@@ -278,11 +303,11 @@ double Solver::solve_pressure(bool inlet_side, double other, const std::function
                                     show(q, low), show(q, high)));
 }
 
-std::string Solver::unknown_list(const std::vector<Quantity>& unknown) const {
+std::string Solver::unknown_list(const SolvedFor& unknown) const {
   std::string out;
   for (size_t i = 0; i < unknown.size(); ++i) {
     if (i) out += i + 1 == unknown.size() ? " and " : ", ";
-    out += quantity_key(unknown[i]);
+    out += quantity_key(unknown.begin()[i]);
   }
   return out;
 }
@@ -294,11 +319,11 @@ Rating Solver::run() {
   const Quantity all[] = {Quantity::inlet_pressure, Quantity::inlet_temperature, Quantity::outlet_pressure,
                           Quantity::outlet_temperature, Quantity::flow, Quantity::power,
                           Quantity::efficiency};
-  std::vector<Quantity> unknown;
+  SolvedFor unknown;  // a fixed list: nothing allocated per case
   for (Quantity q : all) {
     if (!known(q)) unknown.push_back(q);
   }
-  auto is_unknown = [&](Quantity q) { return std::find(unknown.begin(), unknown.end(), q) != unknown.end(); };
+  auto is_unknown = [&](Quantity q) { return unknown.contains(q); };
 
   if (unknown.size() > 2) {
     refuse(fmt::format("too few knowns: {} are all unknown; give {} more of them (five of the seven "
@@ -317,8 +342,8 @@ Rating Solver::run() {
   // Two unknowns among p1, p2 and the efficiency leave the efficiency definition
   // with two unknowns while the balance only checks itself.
   {
-    const std::vector<Quantity> only_in_definition = {Quantity::inlet_pressure, Quantity::outlet_pressure,
-                                                     Quantity::efficiency};
+    const Quantity only_in_definition[] = {Quantity::inlet_pressure, Quantity::outlet_pressure,
+                                           Quantity::efficiency};
     int count = 0;
     for (Quantity q : only_in_definition) count += is_unknown(q);
     if (count == 2) {
@@ -332,9 +357,7 @@ Rating Solver::run() {
   r.machine = in_.machine;
   r.model = fluid_.model_name();
   r.mechanical_efficiency = in_.mechanical_efficiency;
-  for (Quantity q : unknown) {
-    r.solved_for.push_back(q == Quantity::flow ? "mass_flow" : quantity_key(q));
-  }
+  r.solved_for = unknown;  // quantity_key(Quantity::flow) is "mass_flow"
 
   // --- Find the inlet and outlet states. ---------------------------------------
   const bool T1_unknown = is_unknown(Quantity::inlet_temperature);
@@ -343,6 +366,8 @@ Rating Solver::run() {
   const bool T2_unknown = is_unknown(Quantity::outlet_temperature);
   const bool eta_unknown = is_unknown(Quantity::efficiency);
   bool balance_used = false;  // the energy balance fixed h1 or h2
+  // The state at (p2, s1) when the efficiency gave h2 directly, kept for the efficiencies.
+  std::optional<State> isentropic_at_p2;
 
   // h2 fixed by the balance from an inlet state (flow and power known).
   auto h2_by_balance = [&](const State& in) {
@@ -371,7 +396,9 @@ Rating Solver::run() {
       if (!T2_unknown) {
         h2 = outlet_given(p2).enthalpy;
       } else if (!eta_unknown) {
-        h2 = outlet_enthalpy_by_efficiency(inlet, p2);
+        OutletFromEfficiency by_efficiency = outlet_from_efficiency(fluid_, in_.machine, inlet, p2, *in_.efficiency);
+        h2 = by_efficiency.enthalpy;
+        isentropic_at_p2 = by_efficiency.isentropic;
       } else {
         h2 = h2_by_balance(inlet);
         balance_used = true;
@@ -435,7 +462,8 @@ Rating Solver::run() {
   const State outlet = T2_unknown ? fluid_.from_ph(p2, h2) : outlet_given(p2);
 
   // --- Efficiencies, checked against what a real machine can do. -----------------
-  ProcessEfficiencies eff = isentropic_efficiency_of(fluid_, in_.machine, inlet, outlet);
+  ProcessEfficiencies eff = isentropic_efficiency_of(fluid_, in_.machine, inlet, outlet,
+                                                     isentropic_at_p2 ? &*isentropic_at_p2 : nullptr);
   const double mass_flow = flow_unknown ? 0.0 : mass_flow_for(inlet);
   if (!(eff.isentropic > 0 && eff.isentropic <= 1 + 1e-9)) {
     const bool comp = compresses(in_.machine);

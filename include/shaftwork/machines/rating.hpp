@@ -15,11 +15,14 @@
 // All values SI: Pa, K, J/kg, J/(kg K), kg/s, m3/s, mol/s, W.
 #pragma once
 
+#include <array>
+#include <cstddef>
 #include <functional>
 #include <map>
 #include <memory>
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "shaftwork/fluids/fluid_model.hpp"
@@ -93,10 +96,31 @@ struct RedundantCheck {
   double computed = 0;
 };
 
+// The solved quantities (at most two), in the order of the seven. A fixed list of
+// enums rather than strings, so that rating a million cases allocates nothing for
+// it; keys() gives the contract's dotted keys for output.
+class SolvedFor {
+ public:
+  void push_back(Quantity q) { items_[size_++] = q; }
+  std::size_t size() const { return size_; }
+  bool empty() const { return size_ == 0; }
+  const Quantity* begin() const { return items_.data(); }
+  const Quantity* end() const { return items_.data() + size_; }
+  bool contains(Quantity q) const;
+  bool contains(std::string_view key) const;  // a dotted key: "outlet.temperature"
+  std::vector<std::string> keys() const;
+
+ private:
+  std::array<Quantity, 7> items_{};
+  std::size_t size_ = 0;
+};
+// True when `solved` holds exactly these dotted keys, in this order.
+bool operator==(const SolvedFor& solved, const std::vector<std::string>& keys);
+
 struct Rating {
   MachineKind machine = MachineKind::compressor;
   std::string model;
-  std::vector<std::string> solved_for;  // dotted keys, per the contract
+  SolvedFor solved_for;  // dotted keys per the contract (SolvedFor::keys())
   fluids::State inlet;
   fluids::State outlet;
   fluids::State outlet_isentropic;
