@@ -157,6 +157,11 @@ Point region3_solve(double p, Given given, double target, double T_low, double T
   double v = given == Given::enthalpy ? if97::region3_v_ph(p, target) : if97::region3_v_ps(p, target);
   double rho = 1.0 / v;
   const double T0 = T;
+  // A root of the pair is the state sought only on the stable part of an isotherm and
+  // within the temperatures the caller allows (on the caller's side of Ts(p)).
+  auto acceptable = [&](const if97::detail::Region3Point& d) {
+    return d.dp_drho > 0 && d.point.T >= T_low && d.point.T <= T_high;
+  };
   if (std::isfinite(T) && std::isfinite(rho) && rho > 0) {
     for (int i = 0; i < 2 * kNewtonSteps; ++i) {
       const auto d = if97::detail::region3_with_derivatives(rho, T);
@@ -170,13 +175,18 @@ Point region3_solve(double p, Given given, double target, double T_low, double T
       const double d_rho = (f1 * a22 - f2 * a12) / det;
       const double d_T = (a11 * f2 - a21 * f1) / det;
       if (!(std::isfinite(d_rho) && std::isfinite(d_T))) break;
-      if (std::fabs(d_rho) <= kNegligible * rho && std::fabs(d_T) <= kNegligible * T) return d.point;
+      if (std::fabs(d_rho) <= kNegligible * rho && std::fabs(d_T) <= kNegligible * T) {
+        if (acceptable(d)) return d.point;
+        break;
+      }
       // Keep the iterate near the start: a step this large means Newton is lost.
       if (std::fabs(d_T) > 20.0 || std::fabs(d_rho) > 0.3 * rho) break;
       rho -= d_rho;
       T -= d_T;
       if (std::fabs(d_rho) <= kTolerance * rho && std::fabs(d_T) <= kTolerance * T) {
-        return if97::region3(rho, T);
+        const auto last = if97::detail::region3_with_derivatives(rho, T);
+        if (acceptable(last)) return last.point;
+        break;
       }
     }
   }
