@@ -31,7 +31,7 @@ const std::array<Species, 4> kAir = {{
     {0.000319, 44.0095, {4.943650540e+04, -6.264116010e+02, 5.301725240e+00, 2.503813816e-03, -2.127308728e-07,
                          -7.689988780e-10, 2.849677801e-13, -4.528198460e+04, -7.048279440e+00}},
 }};
-constexpr double kRu = 8.314462618;  // J/(mol K); only ratios of R enter the checks below
+constexpr double kRu = 8.31446261815324;  // J/(mol K); only ratios of R enter the checks below
 
 double molar_mass() {  // g/mol
   double M = 0;

@@ -175,7 +175,7 @@ TEST_CASE("actual volume flow units", "[units][flow]") {
 }
 
 TEST_CASE("standard volume flows become molar flows at each unit's reference", "[units][flow]") {
-  const double R = 8.314462618;  // J/(mol K), CODATA 2018 (exact)
+  const double R = 8.31446261815324;  // J/(mol K), CODATA 2018 (exact)
   // Nm3: 273.15 K, 101325 Pa (DIN 1343): n = p V / (R T).
   CHECK(si("1 Nm3/h", D::standard_volume_flow) == Approx(101325 / (R * 273.15) / 3600).epsilon(kExact));
   // The molar volume at 0 degC and 1 atm is 22.413 969 54 L/mol (CODATA 2018).
@@ -189,7 +189,7 @@ TEST_CASE("standard volume flows become molar flows at each unit's reference", "
   CHECK(si("1 scfm", D::standard_volume_flow) == Approx(mol_per_scf / 60).epsilon(1e-12));
   CHECK(si("1 SCFM", D::standard_volume_flow) == Approx(mol_per_scf / 60).epsilon(1e-12));
   // 1 MMSCFD, worked independently in US field units: the gas constant is
-  // 10.7316 psia ft3/(lbmol degR) (8.314462618 J/(mol K) * 453.59237 mol/lbmol / 1.8
+  // 10.7316 psia ft3/(lbmol degR) (8.31446261815324 J/(mol K) * 453.59237 mol/lbmol / 1.8
   // degR/K / (6894.757 Pa/psi * 0.0283168 m3/ft3)), so one lbmol fills
   // 10.7316 * 519.67 / 14.696 = 379.48 scf. 1e6 scf/day is then
   // 1e6 / 379.48 * 453.59237 mol / 86400 s = 13.8344 mol/s.

@@ -103,8 +103,9 @@ double to_si(double number, std::string_view unit, Dimension expected,
 double from_si(double si_value, std::string_view unit, Dimension expected,
                double barometric_pressure = kStandardAtmosphere);
 
-// Universal gas constant, J/(mol K): CODATA 2018 exact value.
-inline constexpr double kGasConstant = 8.314462618;
+// Universal gas constant, J/(mol K): CODATA 2018, exact as N_A k =
+// 6.02214076e23 mol^-1 * 1.380649e-23 J/K = 8.31446261815324 J/(mol K).
+inline constexpr double kGasConstant = 8.31446261815324;
 // Standard acceleration of gravity, m/s2 (CGPM 1901, exact).
 inline constexpr double kStandardGravity = 9.80665;
 
