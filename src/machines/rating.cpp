@@ -173,9 +173,13 @@ class Solver {
   void check_pressure_direction(double p1, double p2) const;
 
   State inlet_at(double p1, std::optional<double> T1) const {
-    if (T1) return fluid_.from_pt(p1, *T1);
-    if (in_.inlet_enthalpy) return fluid_.from_ph(p1, *in_.inlet_enthalpy);
-    return fluid_.from_pt(p1, *in_.inlet_temperature);
+    try {
+      if (T1) return fluid_.from_pt(p1, *T1);
+      if (in_.inlet_enthalpy) return fluid_.from_ph(p1, *in_.inlet_enthalpy);
+      return fluid_.from_pt(p1, *in_.inlet_temperature);
+    } catch (const Error& e) {
+      throw e.with_context("inlet");
+    }
   }
   double outlet_pressure_for(const State& inlet) const {
     if (in_.outlet_pressure) return *in_.outlet_pressure;
@@ -183,6 +187,7 @@ class Solver {
   }
   // The outlet as given (temperature, enthalpy or quality) at pressure p2.
   State outlet_given(double p2) const;
+  void refuse_wet_outlet_temperature(double p2, double T2) const;
   double mass_flow_for(const State& inlet) const;
   // h2 - h1 from the energy balance, signed.
   double enthalpy_rise(double mass_flow, double power) const {
@@ -243,25 +248,32 @@ void Solver::check_pressure_direction(double p1, double p2) const {
 }
 
 State Solver::outlet_given(double p2) const {
-  if (in_.outlet_enthalpy) return fluid_.from_ph(p2, *in_.outlet_enthalpy);
-  if (in_.outlet_quality) return fluid_.from_p_quality(p2, *in_.outlet_quality);
-  const double T2 = *in_.outlet_temperature;
-  if (const auto Tsat = fluid_.saturation_temperature(p2)) {
-    // A measured temperature at (or, for a turbine, below) saturation does not fix a
-    // wet state: the quality could be anything from 0 to 1.
-    constexpr double kBand = 0.5;  // K; a thermometer's usual uncertainty (common practice)
-    const bool at_saturation = std::fabs(T2 - *Tsat) <= kBand;
-    const bool wet_turbine_exhaust = in_.machine == MachineKind::turbine && T2 < *Tsat;
-    if (at_saturation || wet_turbine_exhaust) {
-      refuse(fmt::format(
-          "outlet.temperature {} is {} the saturation temperature {} at the outlet pressure: a "
-          "temperature does not fix a wet state; give outlet.enthalpy or outlet.quality, or power "
-          "with the flow, instead",
-          show(Quantity::outlet_temperature, T2), at_saturation ? "within 0.5 K of" : "below",
-          show(Quantity::outlet_temperature, *Tsat)));
-    }
+  if (in_.outlet_temperature) refuse_wet_outlet_temperature(p2, *in_.outlet_temperature);
+  try {
+    if (in_.outlet_enthalpy) return fluid_.from_ph(p2, *in_.outlet_enthalpy);
+    if (in_.outlet_quality) return fluid_.from_p_quality(p2, *in_.outlet_quality);
+    return fluid_.from_pt(p2, *in_.outlet_temperature);
+  } catch (const Error& e) {
+    throw e.with_context("outlet");
   }
-  return fluid_.from_pt(p2, T2);
+}
+
+void Solver::refuse_wet_outlet_temperature(double p2, double T2) const {
+  const auto Tsat = fluid_.saturation_temperature(p2);
+  if (!Tsat) return;
+  // A measured temperature at (or, for a turbine, below) saturation does not fix a
+  // wet state: the quality could be anything from 0 to 1.
+  constexpr double kBand = 0.5;  // K; a thermometer's usual uncertainty (common practice)
+  const bool at_saturation = std::fabs(T2 - *Tsat) <= kBand;
+  const bool wet_turbine_exhaust = in_.machine == MachineKind::turbine && T2 < *Tsat;
+  if (at_saturation || wet_turbine_exhaust) {
+    refuse(fmt::format(
+        "outlet.temperature {} is {} the saturation temperature {} at the outlet pressure: a "
+        "temperature does not fix a wet state; give outlet.enthalpy or outlet.quality, or power "
+        "with the flow, instead",
+        show(Quantity::outlet_temperature, T2), at_saturation ? "within 0.5 K of" : "below",
+        show(Quantity::outlet_temperature, *Tsat)));
+  }
 }
 
 double Solver::mass_flow_for(const State& inlet) const {
