@@ -11,12 +11,15 @@
 //
 // The load check (all formats): a positive molar mass; intervals with 0 < T_low < T_high,
 // ascending and contiguous (each starts exactly where the previous one ends); and at each
-// joint cp°, H° and S° of the two intervals agree within kJointTolerance = 1e-4 relative.
+// joint H° and S° of the two intervals agree within kJointTolerance = 1e-4 relative and cp°
+// within kJointToleranceCp = 1e-3 (a step of 0.1 % in cp° is inside the fits' own accuracy,
+// and the published database has one, ALOCL's 0.05 % at 1000 K; a misplaced coefficient
+// makes steps of whole percent or more).
 // "Relative" means |below - above| / scale with scale = max(|cp° below|, |cp° above|) for
 // cp°, max(|H° below|, |H° above|, R T) for H° (H° includes the enthalpy of formation and
 // can pass through zero), and max(|S° below|, |S° above|, R) for S°. The NASA Glenn fits
 // of the built-in species meet this by three orders of magnitude (their joints differ by
-// 1e-7 or less); of the 1267 gas records in the 2004 database, only ALOCL misses it.
+// 1e-7 or less), and so does every gas record of the 2004 database.
 #include <algorithm>
 #include <cctype>
 #include <charconv>
@@ -43,7 +46,8 @@ std::string_view embedded_data(std::string_view file_name);
 
 namespace {
 
-constexpr double kJointTolerance = 1e-4;  // relative, see the file comment
+constexpr double kJointTolerance = 1e-4;    // relative, H° and S°; see the file comment
+constexpr double kJointToleranceCp = 1e-3;  // relative, cp°; see the file comment
 
 // ---------------------------------------------------------------------------------------
 // Text helpers
@@ -136,24 +140,26 @@ void check_joint(const NasaSpecies& sp, std::size_t upper, const std::string& or
     double below, above, scale;
     const char* unit;
     double to_unit;  // multiplies a dimensionless value (…/R) into `unit`
+    double tolerance;
+    const char* tolerance_text;
   };
   const double R = units::kGasConstant;  // J/(mol K)
   const Quantity quantities[] = {
       {"cp°", a.cp_over_r, b.cp_over_r, std::max(std::fabs(a.cp_over_r), std::fabs(b.cp_over_r)),
-       "J/(mol K)", R},
+       "J/(mol K)", R, kJointToleranceCp, "1e-3"},
       {"H°", a.h_over_r, b.h_over_r,
-       std::max({std::fabs(a.h_over_r), std::fabs(b.h_over_r), T}), "kJ/mol", R / 1000},
+       std::max({std::fabs(a.h_over_r), std::fabs(b.h_over_r), T}), "kJ/mol", R / 1000, kJointTolerance, "1e-4"},
       {"S°", a.s_over_r, b.s_over_r, std::max({std::fabs(a.s_over_r), std::fabs(b.s_over_r), 1.0}),
-       "J/(mol K)", R},
+       "J/(mol K)", R, kJointTolerance, "1e-4"},
   };
   for (const Quantity& q : quantities) {
     const double jump = std::fabs(q.below - q.above) / q.scale;
-    if (!(jump <= kJointTolerance)) {
+    if (!(jump <= q.tolerance)) {
       fail(origin, line,
            fmt::format("{}: {} jumps by {:.2g} (relative) at the joint {:g} K of intervals {} and {}: "
-                       "{:.8g} {} below, {:.8g} {} above; the intervals must meet within 1e-4",
+                       "{:.8g} {} below, {:.8g} {} above; the intervals must meet within {}",
                        sp.name, q.name, jump, T, upper, upper + 1, q.below * q.to_unit, q.unit,
-                       q.above * q.to_unit, q.unit));
+                       q.above * q.to_unit, q.unit, q.tolerance_text));
     }
   }
 }
