@@ -49,13 +49,16 @@ int run_fluids(const std::string& format, const std::vector<std::string>& specie
       std::cout << doc.dump(2) << '\n';
       return kExitOk;
     }
-    std::cout << "Named fluids\n";
+    std::cout << "Named fluids (name, model, temperature range; then what it is)\n";
     for (const auto& f : doc["fluids"]) {
-      std::cout << fmt::format("  {:<29}{:<17}{:<15}{}\n", f["name"].get<std::string>(),
+      std::cout << fmt::format("  {:<29}{:<17}{}\n      {}\n", f["name"].get<std::string>(),
                                f["model"].get<std::string>(),
                                fmt::format("{:g}-{:g} K", f["temperature_range"][0].get<double>(),
                                            f["temperature_range"][1].get<double>()),
                                f["description"].get<std::string>());
+      if (const std::string note = f["note"].get<std::string>(); !note.empty()) {
+        std::cout << "      " << note << '\n';
+      }
     }
     std::cout << "\nSpecies (NASA polynomials, ideal gas)\n";
     for (const fluids::NasaSpecies& sp : factory.species().species()) {

@@ -47,6 +47,7 @@ std::vector<NamedFluid> parse_named_fluids(std::string_view text) {
     name.erase(name.find_last_not_of(' ') + 1);
     try {
       out.push_back({name, json::parse(line.substr(eq + 1)), note});
+      note.clear();  // a comment describes the line right below it
     } catch (const json::exception& e) {
       refuse(fmt::format("data/fluids.txt line {}: {}", number, e.what()));
     }
