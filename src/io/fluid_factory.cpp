@@ -7,6 +7,7 @@
 #include <fmt/format.h>
 #include <fmt/ranges.h>
 
+#include "json_keys.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/fluids/constant_cp.hpp"
 #include "shaftwork/fluids/iapws_if97.hpp"
@@ -53,16 +54,6 @@ std::vector<NamedFluid> parse_named_fluids(std::string_view text) {
     }
   }
   return out;
-}
-
-// Warns of keys in `object` that are not in `known`.
-void warn_unknown_keys(const json& object, std::initializer_list<std::string_view> known, const std::string& path,
-                       std::vector<std::string>& warnings) {
-  for (const auto& [key, value] : object.items()) {
-    bool found = false;
-    for (std::string_view k : known) found = found || k == key;
-    if (!found) warnings.push_back(fmt::format("{}: unknown key \"{}\" ignored", path, key));
-  }
 }
 
 double read_number(const json& object, const char* key, units::Dimension d, const std::string& path) {
@@ -191,20 +182,20 @@ std::shared_ptr<const fluids::FluidModel> FluidFactory::build(const json& fluid,
   }
   const std::string model = fluid["model"].get<std::string>();
   if (model == "constant-cp") {
-    warn_unknown_keys(fluid, {"model", "cp", "cv", "k", "R", "molar_mass"}, path, warnings);
+    detail::warn_unknown_keys(fluid, {"model", "cp", "cv", "k", "R", "molar_mass"}, path + ".", warnings);
     return make_constant_cp(fluid, path);
   }
   if (model == "nasa-polynomial") {
-    warn_unknown_keys(fluid, {"model", "species", "mixture", "basis"}, path, warnings);
+    detail::warn_unknown_keys(fluid, {"model", "species", "mixture", "basis"}, path + ".", warnings);
     return make_nasa(fluid, path, *species_, warnings);
   }
   if (model == "iapws-if97") {
-    warn_unknown_keys(fluid, {"model"}, path, warnings);
+    detail::warn_unknown_keys(fluid, {"model"}, path + ".", warnings);
     static const auto water = std::make_shared<const fluids::IapwsIf97>();
     return water;
   }
   if (model == "incompressible") {
-    warn_unknown_keys(fluid, {"model", "density", "cp"}, path, warnings);
+    detail::warn_unknown_keys(fluid, {"model", "density", "cp"}, path + ".", warnings);
     if (!fluid.contains("density") || !fluid.contains("cp")) {
       refuse(fmt::format("{}: an incompressible fluid needs \"density\" and \"cp\"", path));
     }
