@@ -56,6 +56,27 @@ std::vector<NamedFluid> parse_named_fluids(std::string_view text) {
   return out;
 }
 
+enum class SpeciesFileFormat { own, nasa7, nasa9 };
+
+// Tells the three species formats apart by their first record: our own format
+// opens a block with "species NAME"; the 7-coefficient format numbers its record
+// lines 1 to 4 in column 80 (or starts with a THERMO line); anything else is read
+// as the published 9-coefficient format, whose parser names the line it cannot read.
+SpeciesFileFormat species_file_format(std::string_view text) {
+  std::istringstream in{std::string(text)};
+  std::string line;
+  while (std::getline(in, line)) {
+    if (!line.empty() && line.back() == '\r') line.pop_back();
+    const auto first = line.find_first_not_of(" \t");
+    if (first == std::string::npos || line[first] == '#' || line[first] == '!') continue;
+    if (line.compare(first, 8, "species ") == 0) return SpeciesFileFormat::own;
+    if (line.compare(first, 6, "THERMO") == 0) return SpeciesFileFormat::nasa7;
+    if (line.size() >= 80 && line[79] == '1') return SpeciesFileFormat::nasa7;
+    return SpeciesFileFormat::nasa9;
+  }
+  return SpeciesFileFormat::nasa9;
+}
+
 double read_number(const json& object, const char* key, units::Dimension d, const std::string& path) {
   units::ParseNotes notes;
   return read_quantity(object.at(key), d, path + "." + key, {}, notes).si;
@@ -143,7 +164,12 @@ void FluidFactory::add_species_file(const std::string& path) {
   if (!file) refuse(fmt::format("{}: cannot read the species file", path));
   std::ostringstream text;
   text << file.rdbuf();
-  species_->merge(fluids::SpeciesLibrary::parse_nasa9(text.str(), path));
+  const std::string content = text.str();
+  switch (species_file_format(content)) {
+    case SpeciesFileFormat::own: species_->merge(fluids::SpeciesLibrary::parse_own_format(content, path)); break;
+    case SpeciesFileFormat::nasa7: species_->merge(fluids::SpeciesLibrary::parse_nasa7(content, path)); break;
+    case SpeciesFileFormat::nasa9: species_->merge(fluids::SpeciesLibrary::parse_nasa9(content, path)); break;
+  }
   cache_.clear();  // definitions may now mean other species
 }
 

@@ -32,8 +32,10 @@ class FluidFactory {
  public:
   FluidFactory();
 
-  // Adds species from a NASA 9-coefficient file (the published format); they
-  // replace built-in species of the same name. Throws bad_input naming the line.
+  // Adds species from a file in the published NASA 9-coefficient format, the older
+  // 7-coefficient format, or the project's own format (told apart by their first
+  // record); they replace built-in species of the same name. Throws bad_input
+  // naming the file and line.
   void add_species_file(const std::string& path);
 
   // The model for a fluid name or object. `path` is the JSON path for messages
