@@ -191,3 +191,28 @@ TEST_CASE("a case that fails leaves the others rated") {
   CHECK(j["status"] == "error");
   CHECK(j["id"] == "bad");
 }
+
+TEST_CASE("standard volume flows use the gas's own molar mass at the unit's reference state") {
+  io::FluidFactory fluids;
+  const json doc = json::parse(R"({"cases": [
+      {"machine": "compressor", "fluid": "methane", "inlet": {"pressure": "40 bar", "temperature": "15 degC"},
+       "outlet": {"pressure": "55 bar"}, "efficiency": 0.8, "standard_volume_flow": "24 MMSCFD"},
+      {"machine": "compressor", "fluid": "methane", "inlet": {"pressure": "40 bar", "temperature": "15 degC"},
+       "outlet": {"pressure": "55 bar"}, "efficiency": 0.8, "standard_volume_flow": "1000 scfm"},
+      {"machine": "compressor", "fluid": "methane", "inlet": {"pressure": "40 bar", "temperature": "15 degC"},
+       "outlet": {"pressure": "55 bar"}, "efficiency": 0.8, "standard_volume_flow": "3600 Sm3/h"}]})");
+  const auto outcomes = io::rate_document(doc, "doc", fluids);
+  REQUIRE(outcomes.size() == 3);
+  for (const auto& o : outcomes) REQUIRE(o.ok());
+  const double R = 8.31446261815324;     // J/(mol K), CODATA 2018
+  const double M = 16.04246e-3;          // kg/mol, CH4 (NASA Glenn database record)
+  const double ft3 = 0.3048 * 0.3048 * 0.3048;  // m3, exact (NIST SP 811)
+  const double psi = 0.45359237 * 9.80665 / (0.0254 * 0.0254);  // Pa, exact lbf/in2
+  // scf: 60 degF and 14.696 psia (common US gas practice), not 14.73 psia.
+  const double T_scf = (60.0 - 32.0) / 1.8 + 273.15;  // K
+  const double mol_per_scf = 14.696 * psi * ft3 / (R * T_scf);
+  CHECK(outcomes[0].rating->mass_flow == Approx(24e6 * mol_per_scf * M / 86400).epsilon(1e-9));
+  CHECK(outcomes[1].rating->mass_flow == Approx(1000 * mol_per_scf * M / 60).epsilon(1e-9));
+  // Sm3: 15 degC, 101.325 kPa (ISO 13443).
+  CHECK(outcomes[2].rating->mass_flow == Approx(101325.0 / (R * 288.15) * M).epsilon(1e-9));
+}
