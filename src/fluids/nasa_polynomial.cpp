@@ -297,6 +297,16 @@ NasaPolynomialGas::NasaPolynomialGas(const std::vector<Component>& components, C
       const double t1 = k + 1 == n ? piece.t_high : piece.t_low * std::exp(span * static_cast<double>(k + 1) / static_cast<double>(n));
       const Values a = evaluate(piece, t0);
       const Values b = evaluate(piece, t1);
+      // An ideal gas has cv° = cp° - R > 0; a fit that breaks this (a bad species file)
+      // would give states with cv <= 0 and k negative or infinite. Checked on the grid.
+      for (const auto& [t, v] : {std::pair{t0, a}, std::pair{t1, b}}) {
+        if (!(v.cp_r > 1.0)) {
+          throw Error(ErrorKind::bad_input,
+                      fmt::format("{}: cp° is {:.6g} R at {:g} K, not above R (cv° would not be "
+                                  "positive); check the species data",
+                                  impl->label, v.cp_r, t));
+        }
+      }
       impl->cells.push_back({t0, t1, a.s_r, b.s_r, t0 / a.cp_r, t1 / b.cp_r, a.h_r, b.h_r,
                              1.0 / a.cp_r, 1.0 / b.cp_r});
     }

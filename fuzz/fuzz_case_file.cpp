@@ -1,0 +1,75 @@
+// Fuzz target: a case file from bytes to every output format, the path `shaftwork rate` takes:
+// io::parse_json_strict, io::rate_document, then the JSON, table (SI and US) and CSV writers.
+// A refusal (shaftwork::Error) is the expected answer to bad input; anything else that
+// escapes, a sanitizer report, or a rated case holding a non-finite number or an efficiency
+// outside (0, 1] is a finding.
+#include <cmath>
+#include <cstddef>
+#include <cstdint>
+#include <cstdlib>
+#include <sstream>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "fuzz_check.hpp"
+#include "shaftwork/error.hpp"
+#include "shaftwork/io/case_runner.hpp"
+#include "shaftwork/io/fluid_factory.hpp"
+#include "shaftwork/io/result_writer.hpp"
+
+namespace {
+
+void require_finite_state(const shaftwork::fluids::State& s) {
+  FUZZ_REQUIRE(std::isfinite(s.pressure) && s.pressure > 0);
+  FUZZ_REQUIRE(std::isfinite(s.temperature) && s.temperature > 0);
+  FUZZ_REQUIRE(std::isfinite(s.enthalpy) && std::isfinite(s.entropy));
+  FUZZ_REQUIRE(std::isfinite(s.density) && s.density > 0);
+  if (s.quality) FUZZ_REQUIRE(*s.quality >= 0 && *s.quality <= 1);
+}
+
+// What a rated case must hold whatever the input was.
+void require_sane(const shaftwork::machines::Rating& r) {
+  require_finite_state(r.inlet);
+  require_finite_state(r.outlet);
+  require_finite_state(r.outlet_isentropic);
+  FUZZ_REQUIRE(std::isfinite(r.mass_flow) && r.mass_flow > 0);
+  FUZZ_REQUIRE(std::isfinite(r.power) && r.power > 0);
+  FUZZ_REQUIRE(std::isfinite(r.fluid_power));
+  FUZZ_REQUIRE(r.efficiency_isentropic > 0 && r.efficiency_isentropic <= 1 + 1e-9);
+  FUZZ_REQUIRE(std::isfinite(r.efficiency_polytropic) && r.efficiency_polytropic > 0);
+  FUZZ_REQUIRE(std::isfinite(r.head_isentropic) && std::isfinite(r.head_polytropic));
+  FUZZ_REQUIRE(std::isfinite(r.pressure_ratio) && r.pressure_ratio >= 1);
+  if (r.head_height) FUZZ_REQUIRE(std::isfinite(*r.head_height));
+  if (r.power_balance) FUZZ_REQUIRE(std::isfinite(r.power_balance->difference_percent));
+}
+
+}  // namespace
+
+extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
+  const std::string_view text(reinterpret_cast<const char*>(data), size);
+  // A fresh factory per input: no state carries over, so every finding replays alone.
+  shaftwork::io::FluidFactory fluids;
+  std::vector<shaftwork::io::CaseOutcome> outcomes;
+  try {
+    const auto document = shaftwork::io::parse_json_strict(text, "fuzz.json");
+    outcomes = shaftwork::io::rate_document(document, "fuzz.json", fluids);
+  } catch (const shaftwork::Error& e) {
+    FUZZ_REQUIRE(std::string_view(e.what()).rfind("fuzz.json: ", 0) == 0);  // a file-level refusal names the file
+    return 0;
+  }
+  for (const auto& outcome : outcomes) {
+    if (outcome.ok()) {
+      require_sane(*outcome.rating);
+    } else {
+      FUZZ_REQUIRE(!outcome.error.empty());
+    }
+  }
+  std::ostringstream json, table_si, table_us, csv;
+  shaftwork::io::write_json(json, outcomes);
+  shaftwork::io::write_table(table_si, outcomes, shaftwork::io::UnitSystem::si);
+  shaftwork::io::write_table(table_us, outcomes, shaftwork::io::UnitSystem::us);
+  shaftwork::io::write_csv(csv, outcomes, shaftwork::io::UnitSystem::si);
+  FUZZ_REQUIRE(!json.str().empty());
+  return 0;
+}
