@@ -4,6 +4,7 @@
 #include <cmath>
 #include <functional>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include <fmt/format.h>
@@ -324,6 +325,29 @@ std::string Solver::unknown_list(const SolvedFor& unknown) const {
   return out;
 }
 
+// Inputs at the edges of what a double holds (an inlet pressure of 1e-308 Pa) can give a
+// density or a volume flow that underflows or overflows; such a result is refused, never
+// printed as inf or nan.
+void refuse_non_finite(const Rating& r) {
+  const std::pair<const char*, double> values[] = {
+      {"inlet density", r.inlet.density},     {"outlet density", r.outlet.density},
+      {"inlet enthalpy", r.inlet.enthalpy},   {"outlet enthalpy", r.outlet.enthalpy},
+      {"inlet entropy", r.inlet.entropy},     {"outlet entropy", r.outlet.entropy},
+      {"mass flow", r.mass_flow},             {"inlet volume flow", r.volume_flow},
+      {"power", r.power},                     {"fluid power", r.fluid_power},
+      {"polytropic efficiency", r.efficiency_polytropic},
+      {"isentropic head", r.head_isentropic}, {"polytropic head", r.head_polytropic},
+      {"pressure ratio", r.pressure_ratio},   {"head height", r.head_height.value_or(0.0)},
+  };
+  for (const auto& [name, value] : values) {
+    if (!std::isfinite(value)) {
+      refuse(fmt::format("the {} comes out as {} (inlet density {:.6g} kg/m3): the inputs lie beyond "
+                         "what double-precision arithmetic holds; check their magnitudes and units",
+                         name, value, r.inlet.density));
+    }
+  }
+}
+
 Rating Solver::run() {
   if (!in_.fluid) refuse("no fluid given");
   check_given_values();
@@ -551,6 +575,7 @@ Rating Solver::run() {
           100 * per_centikelvin));
     }
   }
+  refuse_non_finite(r);
   return r;
 }
 }  // namespace
