@@ -1,16 +1,20 @@
-// shaftwork rate FILE... — rate the cases of JSON case files.
+// shaftwork rate FILE... — rate the cases of JSON case files; with --case, the rows of
+// a CSV file of test points (batch_command.cpp).
 #include <unistd.h>
 
+#include <algorithm>
 #include <fstream>
 #include <iostream>
 #include <iterator>
 #include <memory>
 #include <sstream>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include <fmt/format.h>
 
+#include "batch_command.hpp"
 #include "commands.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/atomic_file.hpp"
@@ -26,6 +30,10 @@ struct RateOptions {
   std::string units = "si";
   std::string output;
   std::vector<std::string> species_files;
+  std::string template_file;  // --case: the files are CSV test points
+  unsigned jobs = 0;
+  bool quiet = false;
+  bool format_given = false;
 };
 
 // The whole text of a file, or of standard input for "-".
@@ -67,6 +75,8 @@ int run_rate(const RateOptions& options) {
   std::ostringstream text;
   if (options.format == "json") {
     io::write_json(text, outcomes);
+  } else if (options.format == "jsonl") {
+    for (const auto& o : outcomes) text << io::result_json(o).dump() << '\n';
   } else if (options.format == "csv") {
     io::write_csv(text, outcomes, system);
   } else {
@@ -94,21 +104,68 @@ int run_rate(const RateOptions& options) {
   return case_failed ? kExitCaseFailed : kExitOk;
 }
 
+bool ends_with(const std::string& text, std::string_view suffix) {
+  return text.size() >= suffix.size() && text.compare(text.size() - suffix.size(), suffix.size(), suffix) == 0;
+}
+
+// A CSV file or --case: the batch form. Returns the exit status.
+int run_rate_batch(const RateOptions& options) {
+  const std::string& first = options.files.front();
+  if (options.template_file.empty()) {
+    std::cerr << fmt::format("error: {}: a CSV file of test points needs its template case: --case TEMPLATE.json\n",
+                             first);
+    return kExitUnusable;
+  }
+  if (options.files.size() != 1) {
+    std::cerr << fmt::format("error: --case rates one CSV file of test points; {} files were given\n",
+                             options.files.size());
+    return kExitUnusable;
+  }
+  if (options.format_given && options.format != "csv" && options.format != "jsonl") {
+    std::cerr << fmt::format("error: --format {} is for JSON case files; a batch of test points writes csv or jsonl\n",
+                             options.format);
+    return kExitUnusable;
+  }
+  BatchCommandOptions batch;
+  batch.points = first;
+  batch.template_file = options.template_file;
+  batch.format = options.format_given ? options.format : "csv";
+  batch.units = options.units;
+  batch.output = options.output;
+  batch.jobs = options.jobs;
+  batch.quiet = options.quiet;
+  batch.species_files = options.species_files;
+  return run_batch(batch);
+}
+
 }  // namespace
 
 void install_rate(CLI::App& sub, int& exit_status) {
   auto options = std::make_shared<RateOptions>();
-  sub.add_option("files", options->files, "JSON case files; - reads standard input")->required();
-  sub.add_option("--format", options->format, "Output format")
-      ->check(CLI::IsMember({"table", "json", "csv"}))
-      ->capture_default_str();
+  sub.add_option("files", options->files,
+                 "JSON case files, or with --case one CSV file of test points; - reads standard input")
+      ->required();
+  auto* format = sub.add_option("--format", options->format,
+                                "Output format (jsonl: one result per line; a batch writes csv or jsonl)")
+                     ->check(CLI::IsMember({"table", "json", "csv", "jsonl"}))
+                     ->capture_default_str();
   sub.add_option("--units", options->units, "Units of table and csv output (json is always SI)")
       ->check(CLI::IsMember({"si", "us"}))
       ->capture_default_str();
   sub.add_option("-o,--output", options->output, "Write the results to this file (whole or not at all)");
   sub.add_option("--species-file", options->species_files,
                  "Extra species in the NASA 9-coefficient format (may be repeated)");
-  sub.callback([options, &exit_status] { exit_status = run_rate(*options); });
+  sub.add_option("--case", options->template_file,
+                 "Template case file for a CSV of test points: what every row shares (docs/batch.md)");
+  sub.add_option("--jobs", options->jobs, "Threads for a batch (default: every core)")->check(CLI::PositiveNumber);
+  sub.add_flag("--quiet", options->quiet, "No progress line for a long batch");
+  sub.callback([options, format, &exit_status] {
+    options->format_given = format->count() > 0;
+    const bool batch = !options->template_file.empty() ||
+                       std::any_of(options->files.begin(), options->files.end(),
+                                   [](const std::string& f) { return ends_with(f, ".csv") || ends_with(f, ".CSV"); });
+    exit_status = batch ? run_rate_batch(*options) : run_rate(*options);
+  });
 }
 
 }  // namespace shaftwork::cli

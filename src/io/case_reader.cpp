@@ -75,6 +75,29 @@ std::string case_label(const json& c, size_t index) {
   return fmt::format("case {}", index + 1);
 }
 
+machines::ValueEcho make_value_echo(std::map<machines::Quantity, std::string> unit_written,
+                                    double barometric_pressure) {
+  return [written = std::move(unit_written), barometer = barometric_pressure](Quantity q, double si) {
+    auto it = written.find(q);
+    if (it != written.end() && !it->second.empty() && it->second != "%") {
+      try {
+        return fmt::format("{:.6g} {}", units::from_si(si, it->second, dimension_of(q), barometer), it->second);
+      } catch (const Error&) {
+      }
+    }
+    switch (q) {
+      case Quantity::inlet_pressure:
+      case Quantity::outlet_pressure: return fmt::format("{:.6g} kPa", si / 1000);
+      case Quantity::inlet_temperature:
+      case Quantity::outlet_temperature: return fmt::format("{:.2f} K", si);
+      case Quantity::flow: return fmt::format("{:.6g} kg/s", si);
+      case Quantity::power: return fmt::format("{:.6g} kW", si / 1000);
+      case Quantity::efficiency: return fmt::format("{:.4f}", si);
+    }
+    return fmt::format("{:.6g}", si);
+  };
+}
+
 CaseInput read_case(const json& c, size_t index, FluidFactory& fluids) {
   if (!c.is_object()) refuse(fmt::format("expected a case object, got {}", c.type_name()));
   CaseInput out;
@@ -215,31 +238,11 @@ CaseInput read_case(const json& c, size_t index, FluidFactory& fluids) {
   }
 
   if (notes.used_default_barometer) {
-    out.warnings.push_back("a gauge pressure was given without site.barometric_pressure: 101.325 kPa assumed");
+    out.warnings.emplace_back(kDefaultBarometerWarning);
   }
 
   // Messages echo values in the units the user wrote them in.
-  const std::map<Quantity, std::string> written = out.unit_written;
-  const double barometer = out.barometric_pressure;
-  r.echo = [written, barometer](Quantity q, double si) {
-    auto it = written.find(q);
-    if (it != written.end() && !it->second.empty() && it->second != "%") {
-      try {
-        return fmt::format("{:.6g} {}", units::from_si(si, it->second, dimension_of(q), barometer), it->second);
-      } catch (const Error&) {
-      }
-    }
-    switch (q) {
-      case Quantity::inlet_pressure:
-      case Quantity::outlet_pressure: return fmt::format("{:.6g} kPa", si / 1000);
-      case Quantity::inlet_temperature:
-      case Quantity::outlet_temperature: return fmt::format("{:.2f} K", si);
-      case Quantity::flow: return fmt::format("{:.6g} kg/s", si);
-      case Quantity::power: return fmt::format("{:.6g} kW", si / 1000);
-      case Quantity::efficiency: return fmt::format("{:.4f}", si);
-    }
-    return fmt::format("{:.6g}", si);
-  };
+  r.echo = make_value_echo(out.unit_written, out.barometric_pressure);
   return out;
 }
 

@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <functional>
 
 #include <fmt/format.h>
 #include <fmt/ranges.h>
@@ -17,76 +16,10 @@ using machines::Quantity;
 using machines::Rating;
 using units::Dimension;
 
-// Display units of each unit system.
-const char* display_unit(Dimension d, UnitSystem system) {
-  const bool us = system == UnitSystem::us;
-  switch (d) {
-    case Dimension::pressure: return us ? "psia" : "kPa";
-    case Dimension::temperature: return us ? "degF" : "degC";
-    case Dimension::mass_flow: return us ? "lb/h" : "kg/s";
-    case Dimension::volume_flow: return us ? "acfm" : "m3/h";
-    case Dimension::power: return us ? "hp" : "kW";
-    case Dimension::specific_energy: return us ? "Btu/lb" : "kJ/kg";
-    case Dimension::length: return us ? "ft" : "m";
-    case Dimension::specific_heat:
-    case Dimension::specific_entropy: return us ? "Btu/(lb R)" : "kJ/(kg K)";
-    case Dimension::density: return us ? "lb/ft3" : "kg/m3";
-    case Dimension::molar_mass: return "g/mol";
-    case Dimension::standard_volume_flow:
-    case Dimension::fraction: return "";
-  }
-  return "";
-}
-
 double in_display(double si, Dimension d, UnitSystem system) {
   const char* unit = display_unit(d, system);
   if (!*unit) return si;
   return units::from_si(si, unit, d);
-}
-
-// One flat output column: dotted key, dimension (fraction: no unit), value getter.
-struct Column {
-  const char* key;
-  Dimension dimension;
-  std::function<std::optional<double>(const Rating&)> value;
-};
-
-const std::vector<Column>& columns() {
-  using R = const Rating&;
-  using O = std::optional<double>;
-  static const std::vector<Column> cols = {
-      {"inlet.pressure", Dimension::pressure, [](R r) -> O { return r.inlet.pressure; }},
-      {"inlet.temperature", Dimension::temperature, [](R r) -> O { return r.inlet.temperature; }},
-      {"inlet.enthalpy", Dimension::specific_energy, [](R r) -> O { return r.inlet.enthalpy; }},
-      {"inlet.entropy", Dimension::specific_entropy, [](R r) -> O { return r.inlet.entropy; }},
-      {"inlet.density", Dimension::density, [](R r) -> O { return r.inlet.density; }},
-      {"inlet.quality", Dimension::fraction, [](R r) -> O { return r.inlet.quality; }},
-      {"outlet.pressure", Dimension::pressure, [](R r) -> O { return r.outlet.pressure; }},
-      {"outlet.temperature", Dimension::temperature, [](R r) -> O { return r.outlet.temperature; }},
-      {"outlet.enthalpy", Dimension::specific_energy, [](R r) -> O { return r.outlet.enthalpy; }},
-      {"outlet.entropy", Dimension::specific_entropy, [](R r) -> O { return r.outlet.entropy; }},
-      {"outlet.density", Dimension::density, [](R r) -> O { return r.outlet.density; }},
-      {"outlet.quality", Dimension::fraction, [](R r) -> O { return r.outlet.quality; }},
-      {"outlet_isentropic.temperature", Dimension::temperature,
-       [](R r) -> O { return r.outlet_isentropic.temperature; }},
-      {"outlet_isentropic.enthalpy", Dimension::specific_energy,
-       [](R r) -> O { return r.outlet_isentropic.enthalpy; }},
-      {"outlet_isentropic.quality", Dimension::fraction, [](R r) -> O { return r.outlet_isentropic.quality; }},
-      {"mass_flow", Dimension::mass_flow, [](R r) -> O { return r.mass_flow; }},
-      {"volume_flow", Dimension::volume_flow, [](R r) -> O { return r.volume_flow; }},
-      {"power", Dimension::power, [](R r) -> O { return r.power; }},
-      {"fluid_power", Dimension::power, [](R r) -> O { return r.fluid_power; }},
-      {"efficiency.isentropic", Dimension::fraction, [](R r) -> O { return r.efficiency_isentropic; }},
-      {"efficiency.polytropic", Dimension::fraction, [](R r) -> O { return r.efficiency_polytropic; }},
-      {"mechanical_efficiency", Dimension::fraction, [](R r) -> O { return r.mechanical_efficiency; }},
-      {"head.isentropic", Dimension::specific_energy, [](R r) -> O { return r.head_isentropic; }},
-      {"head.polytropic", Dimension::specific_energy, [](R r) -> O { return r.head_polytropic; }},
-      {"head_height", Dimension::length, [](R r) -> O { return r.head_height; }},
-      {"pressure_ratio", Dimension::fraction, [](R r) -> O { return r.pressure_ratio; }},
-      {"power_balance.difference_percent", Dimension::fraction,
-       [](R r) -> O { return r.power_balance ? O(r.power_balance->difference_percent) : std::nullopt; }},
-  };
-  return cols;
 }
 
 ordered_json state_json(const fluids::State& s, bool full) {
@@ -124,19 +57,101 @@ std::string format_value(double v) {
 
 }  // namespace
 
-ordered_json result_json(const CaseOutcome& o) {
-  ordered_json j;
-  j["id"] = o.id;
-  if (!o.ok()) {
-    j["status"] = "error";
-    j["error"] = o.error;
-    if (!o.warnings.empty()) j["warnings"] = o.warnings;
-    return j;
+const char* display_unit(Dimension d, UnitSystem system) {
+  const bool us = system == UnitSystem::us;
+  switch (d) {
+    case Dimension::pressure: return us ? "psia" : "kPa";
+    case Dimension::temperature: return us ? "degF" : "degC";
+    case Dimension::mass_flow: return us ? "lb/h" : "kg/s";
+    case Dimension::volume_flow: return us ? "acfm" : "m3/h";
+    case Dimension::power: return us ? "hp" : "kW";
+    case Dimension::specific_energy: return us ? "Btu/lb" : "kJ/kg";
+    case Dimension::length: return us ? "ft" : "m";
+    case Dimension::specific_heat:
+    case Dimension::specific_entropy: return us ? "Btu/(lb R)" : "kJ/(kg K)";
+    case Dimension::density: return us ? "lb/ft3" : "kg/m3";
+    case Dimension::molar_mass: return "g/mol";
+    case Dimension::standard_volume_flow:
+    case Dimension::fraction: return "";
   }
-  const Rating& r = *o.rating;
+  return "";
+}
+
+const std::vector<ResultColumn>& result_columns() {
+  using R = const Rating&;
+  using O = std::optional<double>;
+  using A = ResultColumn::Applies;
+  // The batch leaves out the states' enthalpies, entropies and densities: each model
+  // has its own reference state, so only differences mean anything, and the heads,
+  // powers and efficiencies carry those (docs/batch.md).
+  constexpr bool batch = true;
+  constexpr bool not_in_batch = false;
+  static const std::vector<ResultColumn> cols = {
+      {"inlet.pressure", Dimension::pressure, [](R r) -> O { return r.inlet.pressure; }, batch, A::always},
+      {"inlet.temperature", Dimension::temperature, [](R r) -> O { return r.inlet.temperature; }, batch, A::always},
+      {"inlet.enthalpy", Dimension::specific_energy,
+       [](R r) -> O { return r.inlet.enthalpy; }, not_in_batch, A::always},
+      {"inlet.entropy", Dimension::specific_entropy,
+       [](R r) -> O { return r.inlet.entropy; }, not_in_batch, A::always},
+      {"inlet.density", Dimension::density, [](R r) -> O { return r.inlet.density; }, not_in_batch, A::always},
+      {"inlet.quality", Dimension::fraction, [](R r) -> O { return r.inlet.quality; }, batch, A::two_phase},
+      {"outlet.pressure", Dimension::pressure, [](R r) -> O { return r.outlet.pressure; }, batch, A::always},
+      {"outlet.temperature", Dimension::temperature, [](R r) -> O { return r.outlet.temperature; }, batch, A::always},
+      {"outlet.enthalpy", Dimension::specific_energy,
+       [](R r) -> O { return r.outlet.enthalpy; }, not_in_batch, A::always},
+      {"outlet.entropy", Dimension::specific_entropy,
+       [](R r) -> O { return r.outlet.entropy; }, not_in_batch, A::always},
+      {"outlet.density", Dimension::density, [](R r) -> O { return r.outlet.density; }, not_in_batch, A::always},
+      {"outlet.quality", Dimension::fraction, [](R r) -> O { return r.outlet.quality; }, batch, A::two_phase},
+      {"outlet_isentropic.temperature", Dimension::temperature,
+       [](R r) -> O { return r.outlet_isentropic.temperature; }, batch, A::always},
+      {"outlet_isentropic.enthalpy", Dimension::specific_energy,
+       [](R r) -> O { return r.outlet_isentropic.enthalpy; }, not_in_batch, A::always},
+      {"outlet_isentropic.quality", Dimension::fraction,
+       [](R r) -> O { return r.outlet_isentropic.quality; }, batch, A::two_phase},
+      {"mass_flow", Dimension::mass_flow, [](R r) -> O { return r.mass_flow; }, batch, A::always},
+      {"volume_flow", Dimension::volume_flow, [](R r) -> O { return r.volume_flow; }, batch, A::always},
+      {"power", Dimension::power, [](R r) -> O { return r.power; }, batch, A::always},
+      {"fluid_power", Dimension::power, [](R r) -> O { return r.fluid_power; }, batch, A::always},
+      {"efficiency.isentropic", Dimension::fraction,
+       [](R r) -> O { return r.efficiency_isentropic; }, batch, A::always},
+      {"efficiency.polytropic", Dimension::fraction,
+       [](R r) -> O { return r.efficiency_polytropic; }, batch, A::always},
+      {"mechanical_efficiency", Dimension::fraction,
+       [](R r) -> O { return r.mechanical_efficiency; }, not_in_batch, A::always},
+      {"head.isentropic", Dimension::specific_energy, [](R r) -> O { return r.head_isentropic; }, batch, A::always},
+      {"head.polytropic", Dimension::specific_energy, [](R r) -> O { return r.head_polytropic; }, batch, A::always},
+      {"head_height", Dimension::length, [](R r) -> O { return r.head_height; }, batch, A::pump},
+      {"pressure_ratio", Dimension::fraction, [](R r) -> O { return r.pressure_ratio; }, batch, A::always},
+      {"power_balance.difference_percent", Dimension::fraction,
+       [](R r) -> O { return r.power_balance ? O(r.power_balance->difference_percent) : std::nullopt; },
+       batch, A::always},
+  };
+  return cols;
+}
+
+ordered_json error_json(const std::string& id, const std::string& error, const std::vector<std::string>& warnings) {
+  ordered_json j;
+  j["id"] = id;
+  j["status"] = "error";
+  j["error"] = error;
+  if (!warnings.empty()) j["warnings"] = warnings;
+  return j;
+}
+
+ordered_json result_json(const CaseOutcome& o) {
+  if (!o.ok()) return error_json(o.id, o.error, o.warnings);
+  return result_json(o.id, o.input ? std::string_view(o.input->fluid_name) : std::string_view(), *o.rating,
+                     o.warnings);
+}
+
+ordered_json result_json(const std::string& id, std::string_view fluid_name, const Rating& r,
+                         const std::vector<std::string>& warnings) {
+  ordered_json j;
+  j["id"] = id;
   j["status"] = "ok";
   j["machine"] = machines::machine_name(r.machine);
-  if (o.input) j["fluid"] = o.input->fluid_name;
+  if (!fluid_name.empty()) j["fluid"] = fluid_name;
   j["model"] = r.model;
   j["solved_for"] = r.solved_for.keys();
   j["inlet"] = state_json(r.inlet, true);
@@ -164,14 +179,12 @@ ordered_json result_json(const CaseOutcome& o) {
     }
     j["redundant"] = checks;
   }
-  j["warnings"] = o.warnings;
+  j["warnings"] = warnings;
   try {
     check_finite(j, "");
   } catch (const std::runtime_error& e) {
-    CaseOutcome failed{o.id, std::nullopt, std::nullopt,
-                       fmt::format("the result {} is not a finite number; the case cannot be rated", e.what()),
-                       o.warnings};
-    return result_json(failed);
+    return error_json(id, fmt::format("the result {} is not a finite number; the case cannot be rated", e.what()),
+                      warnings);
   }
   return j;
 }
@@ -195,7 +208,7 @@ std::string csv_field(const std::string& text) {
 
 void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, UnitSystem system) {
   out << "id,status,error,machine,fluid,model,solved_for";
-  for (const Column& c : columns()) {
+  for (const ResultColumn& c : result_columns()) {
     const char* unit = display_unit(c.dimension, system);
     out << ',' << csv_field(*unit ? fmt::format("{} [{}]", c.key, unit) : c.key);
   }
@@ -208,13 +221,13 @@ void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, Unit
       const std::string solved = fmt::format("{}", fmt::join(r.solved_for.keys(), " "));
       out << machines::machine_name(r.machine) << ',' << csv_field(o.input ? o.input->fluid_name : "") << ','
           << r.model << ',' << solved;
-      for (const Column& c : columns()) {
+      for (const ResultColumn& c : result_columns()) {
         out << ',';
         if (auto v = c.value(r); v && std::isfinite(*v)) out << fmt::format("{:.10g}", in_display(*v, c.dimension, system));
       }
     } else {
       out << ",,,";
-      for (size_t i = 0; i < columns().size(); ++i) out << ',';
+      for (size_t i = 0; i < result_columns().size(); ++i) out << ',';
     }
     out << ',' << csv_field(warnings) << "\r\n";
   }

@@ -7,6 +7,7 @@
 
 #include <map>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include <nlohmann/json.hpp>
@@ -37,5 +38,14 @@ std::string case_label(const nlohmann::json& case_object, size_t index);
 // Reads one case. Throws shaftwork::Error whose message names the key and the
 // problem (the caller adds the case's label).
 CaseInput read_case(const nlohmann::json& case_object, size_t index, FluidFactory& fluids);
+
+// Writes SI values for messages the way the user wrote each quantity: in the unit of
+// `unit_written` ("" or absent: kPa, K, kg/s, kW), gauge units against the barometer [Pa].
+machines::ValueEcho make_value_echo(std::map<machines::Quantity, std::string> unit_written,
+                                    double barometric_pressure);
+
+// The warning of a case that gives a gauge pressure but no site barometer.
+inline constexpr std::string_view kDefaultBarometerWarning =
+    "a gauge pressure was given without site.barometric_pressure: 101.325 kPa assumed";
 
 }  // namespace shaftwork::io

@@ -1,0 +1,74 @@
+// shaftwork/io/batch.hpp — rate a CSV file of test points against a template case.
+//
+// The template (one case read by read_case) gives what every row shares: machine,
+// fluid, site, and any quantity the CSV does not give. Each CSV column names a case
+// key in dotted form with its unit in brackets ("outlet.temperature [degC]"); a row's
+// values override the template's. docs/batch.md describes the format for users.
+//
+// The work streams: the input is cut into chunks of whole records, worker threads
+// parse, rate and format chunks, and the results are written in input order, so
+// memory holds a few chunks whatever the length of the input. A row that cannot be
+// read or rated becomes an error row in its place; the others are rated all the same.
+#pragma once
+
+#include <cstddef>
+#include <string>
+
+#include <nlohmann/json.hpp>
+
+#include "shaftwork/io/byte_stream.hpp"
+#include "shaftwork/io/case_reader.hpp"
+#include "shaftwork/io/result_writer.hpp"
+
+namespace shaftwork::io {
+
+enum class BatchFormat {
+  csv,    // the input columns, then status, error, solved_for, result columns, warnings
+  jsonl,  // one result object per line, as result_json writes it
+};
+
+struct BatchOptions {
+  BatchFormat format = BatchFormat::csv;
+  UnitSystem units = UnitSystem::si;  // of the csv result columns
+  unsigned jobs = 1;                  // worker threads; 1 rates on the calling thread
+  std::size_t chunk_bytes = 256 * 1024;
+};
+
+// Told how far the batch has got, from the thread that called rate_batch, after each
+// chunk is written.
+class BatchProgress {
+ public:
+  virtual ~BatchProgress() = default;
+  // `bytes_total` is 0 when the size of the input is not known (a pipe).
+  virtual void update(std::size_t rows, std::size_t bytes_read, std::size_t bytes_total) = 0;
+  virtual void finish(std::size_t rows) = 0;
+};
+
+struct BatchSummary {
+  std::size_t rows = 0;    // data rows seen (not the header, not empty lines)
+  std::size_t failed = 0;  // rows written as errors
+};
+
+// The template of a batch: its one case, read, and what the rows need to know of how
+// it was written.
+struct BatchTemplate {
+  CaseInput input;
+  bool barometer_given = false;  // the template has site.barometric_pressure
+};
+
+// Reads the template from a parsed case file named `origin`. Throws bad_input
+// "<origin>: ..." when it is not a case file, holds more than one case, or its case
+// cannot be read.
+BatchTemplate read_batch_template(const nlohmann::json& document, const std::string& origin,
+                                  FluidFactory& fluids);
+
+// Rates every row of `points` (named `points_name` in messages) against `template_case`
+// and writes the results to `out`. Throws bad_input naming the input for a problem
+// with the whole input, before anything is written when it is the header: a column
+// with an unknown key, a missing, unknown or mismatched unit, two columns that give
+// the same quantity, no header at all; or later a record that never ends, or a read
+// or write failure.
+BatchSummary rate_batch(ByteSource& points, const std::string& points_name, const BatchTemplate& template_case,
+                        ByteSink& out, const BatchOptions& options, BatchProgress* progress = nullptr);
+
+}  // namespace shaftwork::io

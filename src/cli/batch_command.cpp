@@ -1,0 +1,78 @@
+#include "batch_command.hpp"
+
+#include <unistd.h>
+
+#include <fstream>
+#include <iostream>
+#include <iterator>
+#include <memory>
+#include <sstream>
+#include <thread>
+
+#include <fmt/format.h>
+
+#include "commands.hpp"
+#include "progress_line.hpp"
+#include "shaftwork/error.hpp"
+#include "shaftwork/io/batch.hpp"
+#include "shaftwork/io/byte_stream.hpp"
+#include "shaftwork/io/case_runner.hpp"
+
+namespace shaftwork::cli {
+namespace {
+
+std::string read_text_file(const std::string& path) {
+  std::ifstream file(path, std::ios::binary);
+  if (!file) throw Error(ErrorKind::bad_input, fmt::format("{}: cannot read the file", path));
+  std::ostringstream text;
+  text << file.rdbuf();
+  if (file.bad()) throw Error(ErrorKind::bad_input, fmt::format("{}: cannot read the file", path));
+  return text.str();
+}
+
+}  // namespace
+
+int run_batch(const BatchCommandOptions& options) {
+  try {
+    io::FluidFactory fluids;
+    for (const auto& path : options.species_files) fluids.add_species_file(path);
+    const auto document = io::parse_json_strict(read_text_file(options.template_file), options.template_file);
+    const io::BatchTemplate templ = io::read_batch_template(document, options.template_file, fluids);
+
+    io::BatchOptions batch;
+    batch.format = options.format == "jsonl" ? io::BatchFormat::jsonl : io::BatchFormat::csv;
+    batch.units = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
+    batch.jobs = options.jobs > 0 ? options.jobs : std::max(1u, std::thread::hardware_concurrency());
+
+    const bool from_stdin = options.points == "-";
+    const std::string points_name = from_stdin ? "standard input" : options.points;
+    std::unique_ptr<io::FdSource> source = std::make_unique<io::FdSource>(
+        from_stdin ? io::FdSource(STDIN_FILENO, points_name) : io::FdSource::open(options.points));
+    std::unique_ptr<io::AtomicFileSink> file;
+    std::unique_ptr<io::FdSink> stdout_sink;
+    io::ByteSink* sink = nullptr;
+    if (options.output.empty()) {
+      stdout_sink = std::make_unique<io::FdSink>(STDOUT_FILENO, "standard output");
+      sink = stdout_sink.get();
+    } else {
+      file = std::make_unique<io::AtomicFileSink>(options.output);
+      sink = file.get();
+    }
+    std::unique_ptr<ProgressLine> progress;
+    if (!options.quiet && ProgressLine::wanted()) progress = std::make_unique<ProgressLine>();
+
+    const io::BatchSummary summary = io::rate_batch(*source, points_name, templ, *sink, batch, progress.get());
+    if (file) file->commit();
+    if (summary.failed > 0) {
+      std::cerr << fmt::format("error: {} of {} rows could not be rated; each one's \"error\" says why\n",
+                               summary.failed, summary.rows);
+      return kExitCaseFailed;
+    }
+    return kExitOk;
+  } catch (const Error& e) {
+    std::cerr << "error: " << e.what() << '\n';
+    return kExitUnusable;
+  }
+}
+
+}  // namespace shaftwork::cli

@@ -1,0 +1,128 @@
+#include "shaftwork/io/byte_stream.hpp"
+
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include <cerrno>
+#include <cstdio>
+#include <cstring>
+#include <utility>
+#include <vector>
+
+#include <fmt/format.h>
+
+#include "shaftwork/error.hpp"
+
+namespace shaftwork::io {
+
+FdSource::FdSource(int fd, std::string name) : fd_(fd), name_(std::move(name)) {
+  struct stat info {};
+  if (::fstat(fd_, &info) == 0 && S_ISREG(info.st_mode)) size_ = static_cast<std::size_t>(info.st_size);
+}
+
+FdSource FdSource::open(const std::string& path) {
+  const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
+  if (fd < 0) {
+    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot read the file: {}", path, std::strerror(errno)));
+  }
+  FdSource source(fd, path);
+  source.owned_ = true;
+  return source;
+}
+
+FdSource::FdSource(FdSource&& other) noexcept
+    : fd_(other.fd_), owned_(other.owned_), size_(other.size_), name_(std::move(other.name_)) {
+  other.owned_ = false;
+}
+
+FdSource::~FdSource() {
+  if (owned_) ::close(fd_);
+}
+
+std::size_t FdSource::read(char* buffer, std::size_t capacity) {
+  for (;;) {
+    const ssize_t n = ::read(fd_, buffer, capacity);
+    if (n >= 0) return static_cast<std::size_t>(n);
+    if (errno == EINTR) continue;
+    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot read: {}", name_, std::strerror(errno)));
+  }
+}
+
+namespace {
+
+// Writes all bytes to fd; returns false with errno set on failure.
+bool write_all(int fd, std::string_view bytes) {
+  while (!bytes.empty()) {
+    const ssize_t n = ::write(fd, bytes.data(), bytes.size());
+    if (n < 0) {
+      if (errno == EINTR) continue;
+      return false;
+    }
+    bytes.remove_prefix(static_cast<std::size_t>(n));
+  }
+  return true;
+}
+
+}  // namespace
+
+void FdSink::write(std::string_view bytes) {
+  if (!write_all(fd_, bytes)) {
+    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write: {}", name_, std::strerror(errno)));
+  }
+}
+
+AtomicFileSink::AtomicFileSink(std::string path) : path_(std::move(path)) {
+  std::vector<char> name(path_.begin(), path_.end());
+  const char suffix[] = ".XXXXXX";
+  name.insert(name.end(), suffix, suffix + sizeof suffix);  // with its terminating NUL
+  fd_ = ::mkstemp(name.data());
+  if (fd_ < 0) {
+    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write: {}", path_, std::strerror(errno)));
+  }
+  temp_.assign(name.data());
+}
+
+AtomicFileSink::~AtomicFileSink() {
+  if (fd_ >= 0) {
+    ::close(fd_);
+    ::unlink(temp_.c_str());
+  }
+}
+
+void AtomicFileSink::fail(const char* step) {
+  const std::string reason = std::strerror(errno);
+  if (fd_ >= 0) ::close(fd_);
+  fd_ = -1;
+  ::unlink(temp_.c_str());
+  throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write ({}): {}", path_, step, reason));
+}
+
+void AtomicFileSink::write(std::string_view bytes) {
+  if (fd_ < 0) {
+    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write: the file is already closed", path_));
+  }
+  if (!write_all(fd_, bytes)) fail("write");
+}
+
+void AtomicFileSink::commit() {
+  if (fd_ < 0) {
+    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write: the file is already closed", path_));
+  }
+  if (::fchmod(fd_, 0644) != 0) fail("permissions");
+  if (::fsync(fd_) != 0) fail("sync");
+  const int fd = fd_;
+  fd_ = -1;
+  if (::close(fd) != 0) {
+    const std::string reason = std::strerror(errno);
+    ::unlink(temp_.c_str());
+    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write (close): {}", path_, reason));
+  }
+  if (std::rename(temp_.c_str(), path_.c_str()) != 0) {
+    const std::string reason = std::strerror(errno);
+    ::unlink(temp_.c_str());
+    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write (rename): {}", path_, reason));
+  }
+}
+
+}  // namespace shaftwork::io

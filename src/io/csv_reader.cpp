@@ -1,0 +1,218 @@
+#include "shaftwork/io/csv_reader.hpp"
+
+#include <algorithm>
+#include <cstring>
+
+#include <fmt/format.h>
+
+#include "shaftwork/error.hpp"
+
+namespace shaftwork::io {
+namespace {
+
+constexpr std::string_view kByteOrderMark = "\xEF\xBB\xBF";
+
+// Position just after the last record end in text[from, size), given the quote
+// parity at `from`; updates the parity to the end. npos when no record ends there.
+// Jumps from quote to quote with memchr: a file without quotes costs one memrchr.
+std::size_t last_record_end(const char* text, std::size_t from, std::size_t size, bool& in_quotes) {
+  std::size_t boundary = std::string::npos;
+  std::size_t pos = from;
+  while (pos < size) {
+    const void* quote = std::memchr(text + pos, '"', size - pos);
+    const std::size_t stop = quote ? static_cast<std::size_t>(static_cast<const char*>(quote) - text) : size;
+    if (!in_quotes) {
+      if (const void* nl = ::memrchr(text + pos, '\n', stop - pos)) {
+        boundary = static_cast<std::size_t>(static_cast<const char*>(nl) - text) + 1;
+      }
+    }
+    if (!quote) break;
+    in_quotes = !in_quotes;
+    pos = stop + 1;
+  }
+  return boundary;
+}
+
+}  // namespace
+
+CsvChunker::CsvChunker(ByteSource& source, std::string name, std::size_t target_size, std::size_t max_record)
+    : source_(source), name_(std::move(name)), target_size_(std::max<std::size_t>(target_size, 16)),
+      max_record_(max_record) {}
+
+bool CsvChunker::fill(std::string& text) {
+  const std::size_t old_size = text.size();
+  const std::size_t block = std::max<std::size_t>(target_size_, 4096);
+  text.resize(old_size + block);
+  const std::size_t n = source_.read(text.data() + old_size, block);
+  text.resize(old_size + n);
+  bytes_read_ += n;
+  return n > 0;
+}
+
+bool CsvChunker::next(CsvChunk& chunk) {
+  std::string& text = chunk.text;
+  text.clear();
+  text.swap(pending_);  // the reused buffer of `chunk` becomes the next pending buffer
+  chunk.first_line = line_;
+
+  bool in_quotes = false;
+  std::size_t scanned = 0;
+  std::size_t boundary = std::string::npos;
+  // Scan what is already there (the tail of the previous block), then read on.
+  for (;;) {
+    if (at_start_ && text.size() >= kByteOrderMark.size()) {
+      if (std::string_view(text).substr(0, kByteOrderMark.size()) == kByteOrderMark) {
+        text.erase(0, kByteOrderMark.size());
+      }
+      at_start_ = false;
+    }
+    if (scanned < text.size()) {
+      const std::size_t end = last_record_end(text.data(), scanned, text.size(), in_quotes);
+      if (end != std::string::npos) boundary = end;
+      scanned = text.size();
+    }
+    if (boundary != std::string::npos && text.size() >= target_size_) break;
+    if (boundary == std::string::npos && text.size() > max_record_) {
+      const std::string limit = max_record_ % (1u << 20) == 0 ? fmt::format("{} MiB", max_record_ >> 20)
+                                                              : fmt::format("{} bytes", max_record_);
+      throw Error(ErrorKind::bad_input,
+                  fmt::format("{}: line {}: a record runs over {} without ending; is a quote left open?", name_,
+                              line_, limit));
+    }
+    if (at_end_ || !fill(text)) {
+      at_end_ = true;
+      if (at_start_) {  // an input shorter than the byte-order mark
+        at_start_ = false;
+        continue;
+      }
+      break;
+    }
+  }
+  if (text.empty()) return false;
+
+  if (at_end_) {
+    boundary = text.size();  // the last record may lack its line end
+  }
+  pending_.assign(text, boundary, std::string::npos);
+  text.resize(boundary);
+  line_ += static_cast<std::size_t>(std::count(text.begin(), text.end(), '\n'));
+  return true;
+}
+
+CsvRecordParser::CsvRecordParser(std::string& text, std::size_t first_line)
+    : data_(text.data()), size_(text.size()), line_(first_line) {}
+
+bool CsvRecordParser::next(CsvRecord& record) {
+  record.fields.clear();
+  record.error.clear();
+  record.text = {};
+  // Skip empty lines.
+  for (;;) {
+    if (pos_ >= size_) return false;
+    if (data_[pos_] == '\n') {
+      ++pos_;
+      ++line_;
+    } else if (data_[pos_] == '\r' && pos_ + 1 < size_ && data_[pos_ + 1] == '\n') {
+      pos_ += 2;
+      ++line_;
+    } else {
+      break;
+    }
+  }
+  record.line = line_;
+
+  // The record's extent by the quote-parity rule, and the lines it covers.
+  std::size_t end = pos_;
+  bool in_quotes = false;
+  bool has_quotes = false;
+  std::size_t newlines = 0;
+  while (end < size_) {
+    const char c = data_[end];
+    if (c == '"') {
+      in_quotes = !in_quotes;
+      has_quotes = true;
+    } else if (c == '\n') {
+      if (!in_quotes) break;
+      ++newlines;
+    }
+    ++end;
+  }
+  const std::size_t next_pos = end < size_ ? end + 1 : end;
+  std::size_t stop = end;  // the record's text is [pos_, stop)
+  if (stop > pos_ && data_[stop - 1] == '\r' && !in_quotes) --stop;
+  const std::size_t start = pos_;
+  pos_ = next_pos;
+  line_ += newlines + (end < size_ ? 1 : 0);
+  record.has_quotes = has_quotes;
+  if (!has_quotes) record.text = std::string_view(data_ + start, stop - start);
+
+  // Split into fields, unquoting in place.
+  std::size_t i = start;
+  for (;;) {
+    const std::size_t field_number = record.fields.size() + 1;
+    if (i < stop && data_[i] == '"') {
+      char* out = data_ + i;
+      const char* const begin = out;
+      std::size_t j = i + 1;
+      bool closed = false;
+      while (j < stop) {
+        if (data_[j] == '"') {
+          if (j + 1 < stop && data_[j + 1] == '"') {
+            *out++ = '"';
+            j += 2;
+            continue;
+          }
+          closed = true;
+          ++j;
+          break;
+        }
+        *out++ = data_[j++];
+      }
+      if (!closed) {
+        record.fields.clear();
+        record.error = fmt::format("the quoted field {} is not closed before the end of the input", field_number);
+        return true;
+      }
+      record.fields.emplace_back(begin, static_cast<std::size_t>(out - begin));
+      if (j == stop) break;
+      if (data_[j] != ',') {
+        record.fields.clear();
+        record.error = fmt::format("text after the closing quote of field {}", field_number);
+        return true;
+      }
+      i = j + 1;
+    } else {
+      std::size_t j = i;
+      while (j < stop && data_[j] != ',' && data_[j] != '"') ++j;
+      if (j < stop && data_[j] == '"') {
+        record.fields.clear();
+        record.error = fmt::format(
+            "a quote inside the unquoted field {}; quote the whole field and double the quote (\"\")", field_number);
+        return true;
+      }
+      record.fields.emplace_back(data_ + i, j - i);
+      if (j == stop) break;
+      i = j + 1;
+    }
+  }
+  return true;
+}
+
+std::vector<CsvRow> parse_csv(std::string text) {
+  if (std::string_view(text).substr(0, kByteOrderMark.size()) == kByteOrderMark) {
+    text.erase(0, kByteOrderMark.size());
+  }
+  std::vector<CsvRow> rows;
+  CsvRecordParser parser(text, 1);
+  CsvRecord record;
+  while (parser.next(record)) {
+    CsvRow row;
+    row.line = record.line;
+    row.error = record.error;
+    for (std::string_view f : record.fields) row.fields.emplace_back(f);
+    rows.push_back(std::move(row));
+  }
+  return rows;
+}
+
+}  // namespace shaftwork::io
