@@ -121,6 +121,37 @@ bool CsvRecordParser::next(CsvRecord& record) {
   }
   record.line = line_;
 
+  // The common record, without quotes, split in one pass; at the first quote, the
+  // general path below starts again from the record's beginning.
+  {
+    std::size_t i = pos_;
+    std::size_t field_start = pos_;
+    bool quoted = false;
+    for (; i < size_; ++i) {
+      const char c = data_[i];
+      if (c == ',') {
+        record.fields.emplace_back(data_ + field_start, i - field_start);
+        field_start = i + 1;
+      } else if (c == '\n') {
+        break;
+      } else if (c == '"') {
+        quoted = true;
+        break;
+      }
+    }
+    if (!quoted) {
+      std::size_t stop = i;
+      if (stop > field_start && data_[stop - 1] == '\r') --stop;
+      record.fields.emplace_back(data_ + field_start, stop - field_start);
+      record.has_quotes = false;
+      record.text = std::string_view(data_ + pos_, std::max(stop, field_start) - pos_);
+      pos_ = i < size_ ? i + 1 : i;
+      ++line_;
+      return true;
+    }
+    record.fields.clear();
+  }
+
   // The record's extent by the quote-parity rule, and the lines it covers.
   std::size_t end = pos_;
   bool in_quotes = false;

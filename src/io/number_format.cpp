@@ -15,6 +15,9 @@ constexpr double kPowersOfTen[] = {1e-8, 1e-7, 1e-6, 1e-5, 1e-4, 1e-3, 1e-2, 1e-
                                    1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22};
 constexpr double power_of_ten(int k) { return kPowersOfTen[k - kLowestPower]; }
 
+// Bytes moved by each fixed-size copy of digits: more than the 17 digits of a number.
+constexpr std::size_t kCopy = 24;
+
 // "00" "01" ... "99": two digits per lookup.
 constexpr char kDigitPairs[] =
     "00010203040506070809101112131415161718192021222324252627282930313233343536373839"
@@ -95,42 +98,44 @@ char* format_significant(char* out, double value, int digits) {
     decimals = 0;
     scaled = a / power_of_ten(trailing_zeros);
   }
-  const auto n = static_cast<std::uint64_t>(scaled + 0.5);
+  const auto n = static_cast<std::uint64_t>(static_cast<std::int64_t>(scaled + 0.5));  // < 2^63
 
-  char buffer[24];
-  char* const buffer_end = buffer + sizeof buffer;
-  const char* first = digits_before(buffer_end, n);
-  const int length = static_cast<int>(buffer_end - first);
+  // The digits end at the middle of the buffer; the copies below move a fixed 24 bytes
+  // (a few moves, no call) and then count only the digits that belong.
+  char buffer[2 * kCopy];
+  char* const digits_end = buffer + kCopy;
+  const char* first = digits_before(digits_end, n);
+  const int length = static_cast<int>(digits_end - first);
 
   if (decimals == 0) {
-    std::memcpy(out, first, static_cast<std::size_t>(length));
+    std::memcpy(out, first, kCopy);
     out += length;
     for (int i = 0; i < trailing_zeros; ++i) *out++ = '0';
     return out;
   }
   // Drop trailing zeros of the fraction.
-  char* last = buffer_end;
+  const char* last = digits_end;
   while (decimals > 0 && last[-1] == '0') {
     --last;
     --decimals;
   }
   const int kept = static_cast<int>(last - first);
   if (decimals == 0) {
-    std::memcpy(out, first, static_cast<std::size_t>(kept));
+    std::memcpy(out, first, kCopy);
     return out + kept;
   }
   if (kept > decimals) {
     const int whole = kept - decimals;
-    std::memcpy(out, first, static_cast<std::size_t>(whole));
+    std::memcpy(out, first, kCopy);
     out += whole;
     *out++ = '.';
-    std::memcpy(out, first + whole, static_cast<std::size_t>(decimals));
+    std::memcpy(out, first + whole, kCopy);
     return out + decimals;
   }
   *out++ = '0';
   *out++ = '.';
   for (int i = kept; i < decimals; ++i) *out++ = '0';
-  std::memcpy(out, first, static_cast<std::size_t>(kept));
+  std::memcpy(out, first, kCopy);
   return out + kept;
 }
 

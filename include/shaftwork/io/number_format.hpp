@@ -5,11 +5,13 @@
 
 namespace shaftwork::io {
 
-// Room that append_significant may need for one number.
-inline constexpr int kMaxNumberChars = 32;
+// Room that format_significant needs at `out`: the text is at most 32 characters, and
+// bytes after the text, up to this bound, may be overwritten (it moves digits in
+// fixed-size blocks, which is faster than counting them out).
+inline constexpr int kMaxNumberChars = 64;
 
 // Writes `value` rounded to `digits` significant digits (1 to 17) at `out` and returns
-// the end. Trailing zeros and a bare decimal point are dropped ("2", "0.25",
+// the end of the text. Trailing zeros and a bare decimal point are dropped ("2", "0.25",
 // "101325", "-40.5"); 1e-5 <= |value| < 1e15 is written without an exponent, other
 // magnitudes as std::to_chars writes them in general form ("1.5e-07"). Zero is "0";
 // a value that is not finite is written as std::to_chars writes it ("nan", "inf").
