@@ -4,6 +4,7 @@
 
 #include <fmt/format.h>
 
+#include "json_keys.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/json_quantity.hpp"
 
@@ -15,15 +16,6 @@ using machines::Quantity;
 using units::Dimension;
 
 [[noreturn]] void refuse(const std::string& message) { throw Error(ErrorKind::bad_input, message); }
-
-void warn_unknown_keys(const json& object, std::initializer_list<std::string_view> known, const std::string& prefix,
-                       std::vector<std::string>& warnings) {
-  for (const auto& [key, value] : object.items()) {
-    bool found = false;
-    for (std::string_view k : known) found = found || k == key;
-    if (!found) warnings.push_back(fmt::format("unknown key \"{}{}\" ignored", prefix, key));
-  }
-}
 
 // An optional sub-object ("inlet", "outlet", "site"): absent or {} is empty.
 const json& section(const json& c, const char* key) {
@@ -102,7 +94,7 @@ CaseInput read_case(const json& c, size_t index, FluidFactory& fluids) {
   if (!c.is_object()) refuse(fmt::format("expected a case object, got {}", c.type_name()));
   CaseInput out;
   out.id = case_label(c, index);
-  warn_unknown_keys(c,
+  detail::warn_unknown_keys(c,
                     {"id", "machine", "fluid", "inlet", "outlet", "mass_flow", "volume_flow",
                      "standard_volume_flow", "power", "efficiency", "mechanical_efficiency", "head", "site",
                      "note"},
@@ -124,7 +116,7 @@ CaseInput read_case(const json& c, size_t index, FluidFactory& fluids) {
 
   // site first: gauge pressures need the barometer.
   const json& site = section(c, "site");
-  warn_unknown_keys(site, {"barometric_pressure"}, "site.", out.warnings);
+  detail::warn_unknown_keys(site, {"barometric_pressure"}, "site.", out.warnings);
   units::ParseContext context;
   units::ParseNotes notes;
   if (site.contains("barometric_pressure")) {
@@ -147,7 +139,7 @@ CaseInput read_case(const json& c, size_t index, FluidFactory& fluids) {
   };
 
   const json& inlet = section(c, "inlet");
-  warn_unknown_keys(inlet, {"pressure", "temperature", "enthalpy"}, "inlet.", out.warnings);
+  detail::warn_unknown_keys(inlet, {"pressure", "temperature", "enthalpy"}, "inlet.", out.warnings);
   if (inlet.contains("pressure")) {
     r.inlet_pressure = keep(Quantity::inlet_pressure, read(inlet["pressure"], Dimension::pressure, "inlet.pressure"));
   }
@@ -160,7 +152,7 @@ CaseInput read_case(const json& c, size_t index, FluidFactory& fluids) {
   }
 
   const json& outlet = section(c, "outlet");
-  warn_unknown_keys(outlet, {"pressure", "temperature", "enthalpy", "quality"}, "outlet.", out.warnings);
+  detail::warn_unknown_keys(outlet, {"pressure", "temperature", "enthalpy", "quality"}, "outlet.", out.warnings);
   if (outlet.contains("pressure")) {
     r.outlet_pressure =
         keep(Quantity::outlet_pressure, read(outlet["pressure"], Dimension::pressure, "outlet.pressure"));
@@ -198,7 +190,7 @@ CaseInput read_case(const json& c, size_t index, FluidFactory& fluids) {
     std::string path = "efficiency";
     const json* value = &e;
     if (e.is_object()) {
-      warn_unknown_keys(e, {"isentropic", "polytropic"}, "efficiency.", out.warnings);
+      detail::warn_unknown_keys(e, {"isentropic", "polytropic"}, "efficiency.", out.warnings);
       if (e.contains("isentropic") == e.contains("polytropic")) {
         refuse("efficiency: give one of \"isentropic\" and \"polytropic\"");
       }
