@@ -165,11 +165,17 @@ void FluidFactory::add_species_file(const std::string& path) {
   std::ostringstream text;
   text << file.rdbuf();
   const std::string content = text.str();
+  fluids::SpeciesLibrary added;
   switch (species_file_format(content)) {
-    case SpeciesFileFormat::own: species_->merge(fluids::SpeciesLibrary::parse_own_format(content, path)); break;
-    case SpeciesFileFormat::nasa7: species_->merge(fluids::SpeciesLibrary::parse_nasa7(content, path)); break;
-    case SpeciesFileFormat::nasa9: species_->merge(fluids::SpeciesLibrary::parse_nasa9(content, path)); break;
+    case SpeciesFileFormat::own: added = fluids::SpeciesLibrary::parse_own_format(content, path); break;
+    case SpeciesFileFormat::nasa7: added = fluids::SpeciesLibrary::parse_nasa7(content, path); break;
+    case SpeciesFileFormat::nasa9: added = fluids::SpeciesLibrary::parse_nasa9(content, path); break;
   }
+  if (added.species().empty()) {
+    // An empty file, or one of condensed phases only: most likely the wrong file.
+    refuse(fmt::format("{}: no gas-phase species in the file", path));
+  }
+  species_->merge(added);
   cache_.clear();  // definitions may now mean other species
 }
 

@@ -341,9 +341,9 @@ void refuse_non_finite(const Rating& r) {
   };
   for (const auto& [name, value] : values) {
     if (!std::isfinite(value)) {
-      refuse(fmt::format("the {} comes out as {} (inlet density {:.6g} kg/m3): the inputs lie beyond "
-                         "what double-precision arithmetic holds; check their magnitudes and units",
-                         name, value, r.inlet.density));
+      refuse(fmt::format("the {} is not a finite number (inlet density {:.6g} kg/m3): the inputs lie "
+                         "beyond what double-precision arithmetic holds; check their magnitudes and units",
+                         name, r.inlet.density));
     }
   }
 }
@@ -508,7 +508,8 @@ Rating Solver::run() {
       const double shaft = comp ? ideal / in_.mechanical_efficiency : ideal * in_.mechanical_efficiency;
       refuse(fmt::format("efficiency would be {:.4g}: the power {} is {} the isentropic {} {} for this flow",
                          eff.isentropic, show(Quantity::power, *in_.power), comp ? "below" : "above",
-                         comp ? "minimum" : "maximum", show(Quantity::power, shaft)));
+                         comp ? "minimum" : "maximum",
+                         std::isfinite(shaft) ? show(Quantity::power, shaft) : "(more than 1.8e308 W)"));
     }
     if ((outlet.enthalpy - inlet.enthalpy > 0) != comp) {
       refuse(fmt::format("efficiency would be {:.4g}: a {} must {} the enthalpy, and the outlet state ({}) "
