@@ -30,7 +30,7 @@ void exercise(const NasaPolynomialGas& gas) {
       const auto state = gas.from_pt(1e5, T);
       FUZZ_REQUIRE(std::isfinite(state.enthalpy) && std::isfinite(state.entropy) && std::isfinite(state.cp));
       FUZZ_REQUIRE(state.density > 0 && std::isfinite(state.density));
-      FUZZ_REQUIRE(state.cv > 0 && state.cp > state.cv);  // the loader refuses cp° <= R
+      FUZZ_REQUIRE(state.cv > 0);  // the loader refuses cp° <= R
       // Back to T as closely as the arithmetic allows: a file may carry integration constants
       // so large that h and s keep few digits of their change with T (dh = cp dT,
       // ds = cp dT / T), so the tolerance grows with the rounding of h and s.

@@ -298,8 +298,16 @@ NasaPolynomialGas::NasaPolynomialGas(const std::vector<Component>& components, C
       const Values a = evaluate(piece, t0);
       const Values b = evaluate(piece, t1);
       // An ideal gas has cv° = cp° - R > 0; a fit that breaks this (a bad species file)
-      // would give states with cv <= 0 and k negative or infinite. Checked on the grid.
+      // would give states with cv <= 0 and k negative or infinite. And coefficients near
+      // the largest double would give infinite h or s. Both checked on the grid.
       for (const auto& [t, v] : {std::pair{t0, a}, std::pair{t1, b}}) {
+        const double R = impl->gas_constant;
+        if (!std::isfinite(R * v.cp_r) || !std::isfinite(R * v.h_r) || !std::isfinite(R * v.s_r)) {
+          throw Error(ErrorKind::bad_input,
+                      fmt::format("{}: cp°, H° or S° is not a finite number at {:g} K; check the "
+                                  "species data",
+                                  impl->label, t));
+        }
         if (!(v.cp_r > 1.0)) {
           throw Error(ErrorKind::bad_input,
                       fmt::format("{}: cp° is {:.6g} R at {:g} K, not above R (cv° would not be "

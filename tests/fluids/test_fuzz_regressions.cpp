@@ -58,3 +58,18 @@ TEST_CASE("a species with cp° above R everywhere still loads") {
   const auto state = gas.from_pt(1e5, 2900.0);
   CHECK(state.cp / (state.cp - state.cv) == Approx(3.5).epsilon(1e-12));  // cp/R
 }
+
+TEST_CASE("a species whose coefficients overflow h or s is refused, not turned into infinite states") {
+  // fuzz_species: an a1 of 2.393e305 kept cp°/R finite but made h = R (H°/R) infinite, and
+  // from_pt returned that infinite enthalpy.
+  const std::string text =
+      "species Z\n"
+      "molar_mass 28 g/mol\n"
+      "source invented for this test\n"
+      "interval 1000 1100 0 2.393e305 3.5 0 0 0 0 0 0\n"
+      "end\n";
+  const SpeciesLibrary library = SpeciesLibrary::parse_own_format(text, "z.txt");
+  REQUIRE(library.find("Z") != nullptr);
+  CHECK(construction_error(*library.find("Z")) ==
+        "nasa-polynomial Z: cp°, H° or S° is not a finite number at 1000 K; check the species data");
+}
