@@ -614,12 +614,17 @@ class RowRater {
       return;
     }
     out.append("ok,,");
-    bool first = true;
-    for (Quantity q : rating_.solved_for) {
-      if (!first) out.push_back(' ');
-      first = false;
-      out.append(machines::quantity_key(q));
+    const machines::SolvedFor& solved = rating_.solved_for;
+    if (!std::equal(solved.begin(), solved.end(), solved_for_.begin(), solved_for_.end()) ||
+        solved_for_text_.empty()) {  // the rows of a log mostly solve for the same quantities
+      solved_for_ = rating_.solved_for;
+      solved_for_text_.clear();
+      for (Quantity q : solved_for_) {
+        if (!solved_for_text_.empty()) solved_for_text_ += ' ';
+        solved_for_text_ += machines::quantity_key(q);
+      }
     }
+    out.append(solved_for_text_);
     char* p = out.room(plan.outputs.size() * (kMaxNumberChars + 1));
     for (const OutputColumn& o : plan.outputs) {
       *p++ = ',';
@@ -660,6 +665,8 @@ class RowRater {
   CsvRecord record_;
   machines::Rating rating_;
   std::string_view id_;  // the id cell of the row being rated
+  machines::SolvedFor solved_for_;  // of the previous rated row, and as text
+  std::string solved_for_text_;
   std::string error_;
   bool cell_error_ = false;  // the row failed before rating: no warnings, as for a case that cannot be read
   double barometer_ = units::kStandardAtmosphere;

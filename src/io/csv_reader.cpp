@@ -1,6 +1,7 @@
 #include "shaftwork/io/csv_reader.hpp"
 
 #include <algorithm>
+#include <array>
 #include <cstring>
 
 #include <fmt/format.h>
@@ -11,6 +12,15 @@ namespace shaftwork::io {
 namespace {
 
 constexpr std::string_view kByteOrderMark = "\xEF\xBB\xBF";
+
+// The bytes that end a field or a record, or start a quote: one lookup per byte.
+constexpr auto kSpecial = [] {
+  std::array<bool, 256> table{};
+  table[static_cast<unsigned char>(',')] = true;
+  table[static_cast<unsigned char>('\n')] = true;
+  table[static_cast<unsigned char>('"')] = true;
+  return table;
+}();
 
 // Position just after the last record end in text[from, size), given the quote
 // parity at `from`; updates the parity to the end. npos when no record ends there.
@@ -128,6 +138,8 @@ bool CsvRecordParser::next(CsvRecord& record) {
     std::size_t field_start = pos_;
     bool quoted = false;
     for (; i < size_; ++i) {
+      while (i < size_ && !kSpecial[static_cast<unsigned char>(data_[i])]) ++i;  // plain bytes
+      if (i == size_) break;
       const char c = data_[i];
       if (c == ',') {
         record.fields.emplace_back(data_ + field_start, i - field_start);
