@@ -73,6 +73,9 @@ bool CsvChunker::next(CsvChunk& chunk) {
     if (at_start_ && text.size() >= kByteOrderMark.size()) {
       if (std::string_view(text).substr(0, kByteOrderMark.size()) == kByteOrderMark) {
         text.erase(0, kByteOrderMark.size());
+        scanned = 0;  // what was scanned has moved: scan it again from the start
+        in_quotes = false;
+        boundary = std::string::npos;
       }
       at_start_ = false;
     }

@@ -152,6 +152,17 @@ TEST_CASE("the chunker cuts between records however small the chunks and reads")
   }
 }
 
+TEST_CASE("a byte-order mark read a byte at a time, before a quoted header") {
+  // The mark arrives in pieces; what was scanned before it was removed must be scanned again.
+  const std::string text = "\xEF\xBB\xBF\"i,d\",x\n\"a\nb\",1\n";
+  for (std::size_t step : {1u, 2u, 4u}) {
+    const auto rows = read_chunked(text, 16, step);
+    REQUIRE(rows.size() == 2);
+    CHECK(rows[0].fields == Fields{"i,d", "x"});
+    CHECK(rows[1].fields == Fields{"a\nb", "1"});
+  }
+}
+
 TEST_CASE("an input shorter than a byte-order mark, and an empty input") {
   CHECK(read_chunked("", 16, 1).empty());
   const auto rows = read_chunked("a", 16, 1);
