@@ -23,7 +23,7 @@ void install_state(CLI::App& sub, int& exit_status);
 void install_fluids(CLI::App& sub, int& exit_status);
 
 inline constexpr Subcommand kSubcommands[] = {
-    {"rate", "Rate every case in JSON case files (- reads standard input)", install_rate},
+    {"rate", "Rate every case in JSON case files, or every row of a CSV of test points with --case", install_rate},
     {"state", "Print the thermodynamic state of a fluid at a pressure and T, h or s", install_state},
     {"fluids", "List the named fluids, species and property models with their ranges", install_fluids},
 };
