@@ -388,6 +388,14 @@ Rating Solver::run() {
                          unknown_list(unknown)));
     }
   }
+  // An incompressible liquid's isentropic work v (p2 - p1) and its enthalpy rise do not depend
+  // on the temperature level, so flow, power and efficiency fix only T2 - T1: any T1 would do.
+  if (fluid_.is_incompressible() && is_unknown(Quantity::inlet_temperature) &&
+      is_unknown(Quantity::outlet_temperature)) {
+    refuse("inlet.temperature and outlet.temperature cannot both be solved for an incompressible liquid: "
+           "the pressures, flow, power and efficiency fix only the temperature rise; give one of the "
+           "temperatures");
+  }
 
   Rating r;
   r.machine = in_.machine;
