@@ -2,7 +2,7 @@
 # Runs the libFuzzer targets for a bounded time each, one after another.
 #   fuzz/run.sh BUILD_DIR SECONDS [TARGET...]      e.g. fuzz/run.sh build-fuzz 600 case_file
 # BUILD_DIR is a build configured with -DSHAFTWORK_FUZZ=ON (clang); TARGET is a topic
-# (case_file, units, species, ...), all of them when none is named. Each target's corpus
+# (case_file, units, species, csv_rows), all of them when none is named. Each target's corpus
 # lives in BUILD_DIR/fuzz-corpus/TOPIC and grows from run to run; it starts from the seeds
 # below (examples/, the bad-input catalogue, fuzz/seeds/). A finding is written to
 # BUILD_DIR/fuzz-findings/TOPIC-crash-... and the script exits 1 after the other targets ran.
@@ -70,6 +70,12 @@ PY
       ;;
     species)
       seed "$corpus" fuzz/seeds/species/*
+      options+=(-max_len=4096)
+      ;;
+    csv_rows)
+      # The first byte picks the output format and threads; the catalogue's CSV files
+      # lose theirs to it and still make useful seeds.
+      seed "$corpus" fuzz/seeds/csv_rows/* tests/bad_input/*.csv
       options+=(-max_len=4096)
       ;;
     *)

@@ -652,9 +652,13 @@ class RowRater {
     if (rated) {
       std::vector<std::string> warnings = shared_.warnings;
       warnings.insert(warnings.end(), rating_.warnings.begin(), rating_.warnings.end());
-      out.append(result_json(id, shared_.templ.input.fluid_name, rating_, warnings).dump());
+      // A CSV cell may hold bytes that are not UTF-8 (an id from a logger): written as U+FFFD,
+      // where dump() would otherwise throw out of the batch.
+      out.append(result_json(id, shared_.templ.input.fluid_name, rating_, warnings)
+                     .dump(-1, ' ', false, nlohmann::ordered_json::error_handler_t::replace));
     } else {
-      out.append(error_json(id, error_, cell_error_ ? std::vector<std::string>{} : shared_.warnings).dump());
+      out.append(error_json(id, error_, cell_error_ ? std::vector<std::string>{} : shared_.warnings)
+                     .dump(-1, ' ', false, nlohmann::ordered_json::error_handler_t::replace));
     }
     out.push_back('\n');
   }
