@@ -30,6 +30,7 @@
 #include <optional>
 #include <memory>
 #include <random>
+#include <sstream>
 #include <string>
 #include <vector>
 
@@ -54,6 +55,9 @@ namespace {
 // property models' inverses to 1e-10; 1e-7 leaves room for the conditioning of pressure
 // solves at small pressure ratios, where the efficiency barely moves with p2.
 constexpr double kTolerance = 1e-7;
+// A solve that lands further away than that, but within this, and is confirmed a solution
+// by rating it forward, is the same point seen through poor conditioning.
+constexpr double kConditionedTolerance = 1e-5;
 
 long env_count(const char* name, long fallback) {
   const char* text = std::getenv(name);
@@ -293,6 +297,16 @@ double distance(const machines::Rating& r, const RandomCase& c) {
                    relative(r.power, f.P), relative(eta, f.eta)});
 }
 
+std::string fmt_point(const RandomCase& c) {
+  const Point& f = c.point;
+  std::ostringstream text;
+  text.precision(17);
+  text << c.label << " (" << (c.basis == EfficiencyBasis::isentropic ? "isentropic" : "polytropic")
+       << ", eta_m " << c.base.mechanical_efficiency << "): p1 " << f.p1 << " Pa, T1 " << f.T1 << " K, p2 " << f.p2
+       << " Pa, T2 " << f.T2 << " K, m " << f.m << " kg/s, P " << f.P << " W, eta " << f.eta;
+  return text.str();
+}
+
 bool all_finite(const machines::Rating& r) {
   for (const fluids::State* s : {&r.inlet, &r.outlet, &r.outlet_isentropic}) {
     if (!std::isfinite(s->pressure) || !std::isfinite(s->temperature) || !std::isfinite(s->enthalpy) ||
@@ -329,7 +343,8 @@ void round_trips(long cases, bool water) {
   const auto seed = static_cast<std::uint64_t>(env_count("SHAFTWORK_RANDOM_SEED", 20261201));
   Generator random(seed, water);
 
-  long points = 0, skipped = 0, solved = 0, refused_unsolvable = 0, other_solution = 0;
+  long points = 0, skipped = 0, solved = 0, refused_unsolvable = 0, other_solution = 0, ill_conditioned = 0;
+  double worst_conditioned = 0;
   std::map<std::string, long> refusals;  // by direction
   std::map<std::string, std::string> first_refusal;
   std::map<std::string, double> seconds_by_kind;
@@ -372,8 +387,15 @@ void round_trips(long cases, bool water) {
           REQUIRE(r.solved_for.size() == 2);
           const double d = distance(r, *c);
           if (d > kTolerance) {
-            // Not the point: it must then be another solution of the same knowns.
+            // Not the point: it must then be another solution of the same knowns, or the point
+            // itself seen through poor conditioning (a pressure ratio near 1, where the
+            // efficiency hardly changes with the unknown), which the forward check confirms.
             REQUIRE(is_a_solution(r, *c));
+            if (d <= kConditionedTolerance) {
+              ++ill_conditioned;
+              worst_conditioned = std::max(worst_conditioned, d);
+              continue;
+            }
             if (other_solution++ < 5) {
               std::cout << "  another solution: " << c->label << ", solving for " << direction << ": T1 "
                         << r.inlet.temperature << " K (point " << c->point.T1 << "), p1 " << r.inlet.pressure
@@ -390,7 +412,9 @@ void round_trips(long cases, bool water) {
           ++solved;
         } catch (const Error& e) {
           REQUIRE(std::string(e.what()).size() > 10);  // a message, not a bare code
-          if (refusals[direction]++ == 0) first_refusal[direction] = c->label + ": " + e.what();
+          if (refusals[direction]++ == 0) {
+            first_refusal[direction] = fmt_point(*c) + ": " + e.what();
+          }
         }
       }
     }
@@ -402,7 +426,9 @@ void round_trips(long cases, bool water) {
   for (const auto& [direction, n] : refusals) refused += n;
   std::cout << "test_rating_random (" << (water ? "IF97" : "gases and liquids") << "): " << points << " random points (seed " << seed << ", " << skipped
             << " generated points refused by the forward rating), " << solved << " solves round-tripped "
-            << "(worst relative difference " << worst << ", " << worst_label << "), " << other_solution
+            << "(worst relative difference " << worst << ", " << worst_label << "), " << ill_conditioned
+            << " more within " << kConditionedTolerance << " and confirmed forward (worst " << worst_conditioned
+            << "), " << other_solution
             << " other solutions, " << refused << " refused, " << refused_unsolvable
             << " unsolvable pairs refused\n";
   for (const auto& [kind, t] : seconds_by_kind) std::cout << "  " << kind << ": " << t << " s\n";
@@ -411,7 +437,7 @@ void round_trips(long cases, bool water) {
               << first_refusal[direction] << "\n";
   }
   CHECK(points == cases);
-  CHECK(solved + other_solution + refused + refused_unsolvable == 21 * cases);
+  CHECK(solved + ill_conditioned + other_solution + refused + refused_unsolvable == 21 * cases);
   // A solution exists for every solvable direction (the point itself), so refusals are
   // failures of the solver to find it; a handful at the edges of ranges is tolerated.
   CHECK(refused <= 17 * cases / 1000 + 2);
