@@ -331,6 +331,7 @@ class OutputBuffer {
   }
   void commit(const char* end) { size_ = static_cast<std::size_t>(end - data_.get()); }
   void append(std::string_view text) {
+    if (text.empty()) return;  // memcpy into a buffer not yet allocated (null) is undefined
     char* p = room(text.size());
     std::memcpy(p, text.data(), text.size());
     size_ += text.size();

@@ -105,6 +105,10 @@ for expect in "$catalogue"/*.expect; do
   status=$?
   if [ -n "$kind" ]; then rm -f "$input"; fi
 
+  # A sanitizer build may report and still exit 1, the status of a failed case.
+  if grep -qE 'runtime error:|ERROR: (Address|Leak|UndefinedBehavior)Sanitizer' "$scratch/err"; then
+    fail "$name" "a sanitizer report: $(grep -m1 -E 'runtime error:|Sanitizer' "$scratch/err")"
+  fi
   [ "$status" = "$exit_expected" ] || fail "$name" "exit status $status, expected $exit_expected; stderr: $(head -c 300 "$scratch/err")"
   for part in "${stderr_parts[@]}"; do
     grep -qF -- "$part" "$scratch/err" || fail "$name" "stderr lacks '$part'; it holds: $(head -c 300 "$scratch/err")"
