@@ -13,7 +13,8 @@
 // A solved set that differs from the point is accepted only when it is itself a point of the
 // machine (rated forward from its own inlet, pressures and efficiency it gives the same
 // outlet, flow and power): then the knowns had two solutions and the solver found the other.
-// The test counts those and prints them; none is expected.
+// The test counts those and prints them; for ideal gases and liquids none is allowed, for
+// steam a few are (see the end of round_trips).
 //
 // Case counts: SHAFTWORK_RANDOM_CASES random points on gases and liquids (default 300, the
 // CI count; 100000 once by hand) and SHAFTWORK_RANDOM_IF97_CASES on IAPWS-IF97 steam and
@@ -441,7 +442,12 @@ void round_trips(long cases, bool water) {
   // A solution exists for every solvable direction (the point itself), so refusals are
   // failures of the solver to find it; a handful at the edges of ranges is tolerated.
   CHECK(refused <= 17 * cases / 1000 + 2);
-  CHECK(other_solution == 0);
+  // Ideal gases and incompressible liquids give each set of knowns one solution. Steam need
+  // not: at a fixed inlet temperature the isentropic work of a turbine can pass through a
+  // maximum as the inlet pressure rises toward saturation, so a power is met at two inlet
+  // pressures. Such a second solution was confirmed above by rating it forward; it is
+  // printed, not failed.
+  if (!water) CHECK(other_solution == 0);
 }
 
 }  // namespace
