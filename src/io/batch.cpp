@@ -261,7 +261,14 @@ Plan make_plan(std::vector<std::string> header, std::size_t header_line, const s
       }
       const std::string problem = unit_problem(unit, c.dimension);
       if (!problem.empty()) fail(i, problem);
-      const units::UnitInfo& u = *units::find_unit(unit);
+      // to_si() above forgives blanks around a unit; find_unit() does not ("kW\r" from a
+      // header cut at a carriage return), so a unit that passed may still have no row.
+      const units::UnitInfo* found = units::find_unit(unit);
+      if (found == nullptr) {
+        fail(i, fmt::format("unknown unit \"{}\" for a {} (a blank or control character in the brackets?)",
+                            unit, units::dimension_name(c.dimension)));
+      }
+      const units::UnitInfo& u = *found;
       c.scale = u.scale;
       c.offset = u.offset;
       c.gauge = u.gauge;
