@@ -97,12 +97,19 @@ ProcessEfficiencies isentropic_efficiency_of(const FluidModel& fluid, MachineKin
   return e;
 }
 
+// The root of a scanning search, and where f changes sign again if it does: a
+// second solution the user should hear of.
+struct ScanResult {
+  double x;
+  std::optional<double> another;
+};
+
 // Scans [low, high] (in log space when `log_scale`) for the first sign change of f,
-// then closes on it with TOMS 748. Points where f cannot be evaluated (a state
+// then closes on it with TOMS 748, and scans on for a second one. Points where f cannot be evaluated (a state
 // outside the model's range) are skipped. Throws bad_input with `no_solution` when
 // f does not change sign anywhere in the interval.
-double solve_scanning(const std::function<double(double)>& f, double low, double high, bool log_scale,
-                      const std::string& what, const std::string& no_solution) {
+ScanResult solve_scanning(const std::function<double(double)>& f, double low, double high, bool log_scale,
+                          const std::string& what, const std::string& no_solution) {
   constexpr int kPoints = 48;
   auto at = [&](int i) {
     const double t = static_cast<double>(i) / kPoints;
@@ -116,21 +123,27 @@ double solve_scanning(const std::function<double(double)>& f, double low, double
     }
     return std::nullopt;
   };
+  std::optional<ScanResult> found;
   std::optional<double> previous;
   double previous_x = low;
   for (int i = 0; i <= kPoints; ++i) {
     const double x = at(i);
     const auto v = value(x);
     if (!v) continue;
-    if (*v == 0) return x;
-    if (previous && ((*previous > 0) != (*v > 0))) {
+    const bool crossed = *v == 0 || (previous && *previous != 0 && ((*previous > 0) != (*v > 0)));
+    if (crossed && found) {
+      found->another = x;  // a second solution: the scan goes no further
+      return *found;
+    }
+    if (crossed) {
       numerics::RootOptions options;
       options.relative_tolerance = 1e-13;
-      return numerics::find_root(f, previous_x, x, what, options).x;
+      found = ScanResult{*v == 0 ? x : numerics::find_root(f, previous_x, x, what, options).x, std::nullopt};
     }
     previous = v;
     previous_x = x;
   }
+  if (found) return *found;
   refuse(no_solution);
 }
 
@@ -202,6 +215,10 @@ class Solver {
 
   // Root searches over one unknown, each returning the solved value.
   double solve_inlet_temperature(double p1, const std::function<double(const State&)>& residual) const;
+  // A scanning search for quantity q in [low, high] (log scale); a second solution of
+  // the outermost search is kept for a warning.
+  double scan(Quantity q, const std::function<double(double)>& f, double low, double high,
+              const std::string& no_solution) const;
   double solve_pressure(bool inlet_side, double other_pressure,
                         const std::function<double(double)>& residual) const;
 
@@ -209,6 +226,8 @@ class Solver {
 
   const RatingInput& in_;
   const FluidModel& fluid_;
+  mutable int search_depth_ = 0;                       // nesting of scanning searches
+  mutable std::vector<std::string> second_solutions_;  // warnings from the outermost one
 };
 
 void Solver::check_given_values() const {
@@ -296,11 +315,28 @@ double Solver::mass_flow_for(const State& inlet) const {
 double Solver::solve_inlet_temperature(double p1,
                                        const std::function<double(const State&)>& residual) const {
   const fluids::Range range = temperature_range();
-  return solve_scanning([&](double T1) { return residual(fluid_.from_pt(p1, T1)); }, range.low,
-                        range.high, true, "inlet temperature",
-                        fmt::format("no inlet temperature between {} and {} satisfies the other knowns",
-                                    show(Quantity::inlet_temperature, range.low),
-                                    show(Quantity::inlet_temperature, range.high)));
+  return scan(Quantity::inlet_temperature, [&](double T1) { return residual(fluid_.from_pt(p1, T1)); },
+              range.low, range.high,
+              fmt::format("no inlet temperature between {} and {} satisfies the other knowns",
+                          show(Quantity::inlet_temperature, range.low),
+                          show(Quantity::inlet_temperature, range.high)));
+}
+
+double Solver::scan(Quantity q, const std::function<double(double)>& f, double low, double high,
+                    const std::string& no_solution) const {
+  ++search_depth_;
+  struct Leave {
+    int& depth;
+    ~Leave() { --depth; }
+  } leave{search_depth_};
+  const ScanResult result = solve_scanning(f, low, high, true, quantity_key(q), no_solution);
+  if (result.another && search_depth_ == 1) {
+    second_solutions_.push_back(fmt::format(
+        "{} has a second solution near {}; the one reported is the first from {}: check which the "
+        "machine runs at",
+        quantity_key(q), show(q, *result.another), show(q, low)));
+  }
+  return result.x;
 }
 
 double Solver::solve_pressure(bool inlet_side, double other, const std::function<double(double)>& residual) const {
@@ -311,9 +347,9 @@ double Solver::solve_pressure(bool inlet_side, double other, const std::function
   const double low = unknown_is_higher ? other * (1 + 1e-9) : range.low;
   const double high = unknown_is_higher ? range.high : other * (1 - 1e-9);
   const Quantity q = inlet_side ? Quantity::inlet_pressure : Quantity::outlet_pressure;
-  return solve_scanning(residual, low, high, true, quantity_key(q),
-                        fmt::format("no {} between {} and {} satisfies the other knowns", quantity_key(q),
-                                    show(q, low), show(q, high)));
+  return scan(q, residual, low, high,
+              fmt::format("no {} between {} and {} satisfies the other knowns", quantity_key(q), show(q, low),
+                          show(q, high)));
 }
 
 std::string Solver::unknown_list(const SolvedFor& unknown) const {
@@ -584,6 +620,7 @@ Rating Solver::run() {
           100 * per_centikelvin));
     }
   }
+  r.warnings.insert(r.warnings.end(), second_solutions_.begin(), second_solutions_.end());
   refuse_non_finite(r);
   return r;
 }
