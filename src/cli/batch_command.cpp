@@ -2,7 +2,6 @@
 
 #include <unistd.h>
 
-#include <fstream>
 #include <iostream>
 #include <iterator>
 #include <memory>
@@ -17,18 +16,11 @@
 #include "shaftwork/io/batch.hpp"
 #include "shaftwork/io/byte_stream.hpp"
 #include "shaftwork/io/case_runner.hpp"
+#include "shaftwork/io/text_file.hpp"
 
 namespace shaftwork::cli {
 namespace {
 
-std::string read_text_file(const std::string& path) {
-  std::ifstream file(path, std::ios::binary);
-  if (!file) throw Error(ErrorKind::bad_input, fmt::format("{}: cannot read the file", path));
-  std::ostringstream text;
-  text << file.rdbuf();
-  if (file.bad()) throw Error(ErrorKind::bad_input, fmt::format("{}: cannot read the file", path));
-  return text.str();
-}
 
 }  // namespace
 
@@ -36,7 +28,7 @@ int run_batch(const BatchCommandOptions& options) {
   try {
     io::FluidFactory fluids;
     for (const auto& path : options.species_files) fluids.add_species_file(path);
-    const auto document = io::parse_json_strict(read_text_file(options.template_file), options.template_file);
+    const auto document = io::parse_json_strict(io::read_text_file(options.template_file), options.template_file);
     const io::BatchTemplate templ = io::read_batch_template(document, options.template_file, fluids);
 
     io::BatchOptions batch;

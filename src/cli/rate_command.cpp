@@ -3,7 +3,6 @@
 #include <unistd.h>
 
 #include <algorithm>
-#include <fstream>
 #include <iostream>
 #include <iterator>
 #include <memory>
@@ -20,6 +19,7 @@
 #include "shaftwork/io/atomic_file.hpp"
 #include "shaftwork/io/case_runner.hpp"
 #include "shaftwork/io/result_writer.hpp"
+#include "shaftwork/io/text_file.hpp"
 
 namespace shaftwork::cli {
 namespace {
@@ -36,18 +36,6 @@ struct RateOptions {
   bool format_given = false;
 };
 
-// The whole text of a file, or of standard input for "-".
-std::string read_input(const std::string& path) {
-  if (path == "-") {
-    return std::string(std::istreambuf_iterator<char>(std::cin), std::istreambuf_iterator<char>());
-  }
-  std::ifstream file(path, std::ios::binary);
-  if (!file) throw Error(ErrorKind::bad_input, fmt::format("{}: cannot read the file", path));
-  std::ostringstream text;
-  text << file.rdbuf();
-  if (file.bad()) throw Error(ErrorKind::bad_input, fmt::format("{}: cannot read the file", path));
-  return text.str();
-}
 
 int run_rate(const RateOptions& options) {
   io::FluidFactory fluids;
@@ -62,7 +50,7 @@ int run_rate(const RateOptions& options) {
   for (const auto& path : options.files) {
     const std::string origin = path == "-" ? "standard input" : path;
     try {
-      const auto document = io::parse_json_strict(read_input(path), origin);
+      const auto document = io::parse_json_strict(io::read_text_file(path), origin);
       auto rated = io::rate_document(document, origin, fluids);
       for (auto& o : rated) outcomes.push_back(std::move(o));
     } catch (const Error& e) {

@@ -1,5 +1,4 @@
 // shaftwork state — the thermodynamic state of a fluid at (p, T), (p, h) or (p, s).
-#include <fstream>
 #include <iostream>
 #include <memory>
 #include <optional>
@@ -15,6 +14,7 @@
 #include "shaftwork/io/case_runner.hpp"
 #include "shaftwork/io/fluid_factory.hpp"
 #include "shaftwork/io/json_quantity.hpp"
+#include "shaftwork/io/text_file.hpp"
 
 namespace shaftwork::cli {
 namespace {
@@ -90,11 +90,7 @@ int run_state(const StateOptions& o) {
     nlohmann::json fluid_spec;
     std::string fluid_label;
     if (!o.fluid_file.empty()) {
-      std::ifstream file(o.fluid_file, std::ios::binary);
-      if (!file) throw Error(ErrorKind::bad_input, fmt::format("{}: cannot read the file", o.fluid_file));
-      std::ostringstream text;
-      text << file.rdbuf();
-      fluid_spec = io::parse_json_strict(text.str(), o.fluid_file);
+      fluid_spec = io::parse_json_strict(io::read_text_file(o.fluid_file), o.fluid_file);
       fluid_label = o.fluid_file;
     } else {
       fluid_spec = o.fluid;

@@ -1,6 +1,5 @@
 #include "shaftwork/io/fluid_factory.hpp"
 
-#include <fstream>
 #include <sstream>
 #include <string_view>
 
@@ -13,6 +12,7 @@
 #include "shaftwork/fluids/iapws_if97.hpp"
 #include "shaftwork/fluids/incompressible.hpp"
 #include "shaftwork/io/json_quantity.hpp"
+#include "shaftwork/io/text_file.hpp"
 
 namespace shaftwork::fluids {
 std::string_view embedded_data(std::string_view name);  // generated from data/*.txt
@@ -160,11 +160,7 @@ FluidFactory::FluidFactory()
     : species_(std::make_shared<fluids::SpeciesLibrary>(fluids::SpeciesLibrary::built_in())) {}
 
 void FluidFactory::add_species_file(const std::string& path) {
-  std::ifstream file(path, std::ios::binary);
-  if (!file) refuse(fmt::format("{}: cannot read the species file", path));
-  std::ostringstream text;
-  text << file.rdbuf();
-  const std::string content = text.str();
+  const std::string content = read_text_file(path);
   fluids::SpeciesLibrary added;
   switch (species_file_format(content)) {
     case SpeciesFileFormat::own: added = fluids::SpeciesLibrary::parse_own_format(content, path); break;
