@@ -105,16 +105,12 @@ struct ScanResult {
 };
 
 // Scans [low, high] (in log space when `log_scale`) for the first sign change of f,
-// then closes on it with TOMS 748, and scans on for a second one. Points where f cannot be evaluated (a state
+// then closes on it with TOMS 748, and scans on for a second one; a scan that meets
+// no sign change is repeated eight times finer before giving up. Points where f cannot be evaluated (a state
 // outside the model's range) are skipped. Throws bad_input with `no_solution` when
 // f does not change sign anywhere in the interval.
 ScanResult solve_scanning(const std::function<double(double)>& f, double low, double high, bool log_scale,
                           const std::string& what, const std::string& no_solution) {
-  constexpr int kPoints = 48;
-  auto at = [&](int i) {
-    const double t = static_cast<double>(i) / kPoints;
-    return log_scale ? low * std::pow(high / low, t) : low + (high - low) * t;
-  };
   auto value = [&](double x) -> std::optional<double> {
     try {
       const double v = f(x);
@@ -123,27 +119,36 @@ ScanResult solve_scanning(const std::function<double(double)>& f, double low, do
     }
     return std::nullopt;
   };
-  std::optional<ScanResult> found;
-  std::optional<double> previous;
-  double previous_x = low;
-  for (int i = 0; i <= kPoints; ++i) {
-    const double x = at(i);
-    const auto v = value(x);
-    if (!v) continue;
-    const bool crossed = *v == 0 || (previous && *previous != 0 && ((*previous > 0) != (*v > 0)));
-    if (crossed && found) {
-      found->another = x;  // a second solution: the scan goes no further
-      return *found;
+  // A coarse scan first; when it meets no sign change, a scan eight times finer, since
+  // two roots close together (or a narrow valid interval at a range's edge) can hide
+  // between coarse points.
+  for (const int points : {48, 384}) {
+    auto at = [&](int i) {
+      const double t = static_cast<double>(i) / points;
+      return log_scale ? low * std::pow(high / low, t) : low + (high - low) * t;
+    };
+    std::optional<ScanResult> found;
+    std::optional<double> previous;
+    double previous_x = low;
+    for (int i = 0; i <= points; ++i) {
+      const double x = at(i);
+      const auto v = value(x);
+      if (!v) continue;
+      const bool crossed = *v == 0 || (previous && *previous != 0 && ((*previous > 0) != (*v > 0)));
+      if (crossed && found) {
+        found->another = x;  // a second solution: the scan goes no further
+        return *found;
+      }
+      if (crossed) {
+        numerics::RootOptions options;
+        options.relative_tolerance = 1e-13;
+        found = ScanResult{*v == 0 ? x : numerics::find_root(f, previous_x, x, what, options).x, std::nullopt};
+      }
+      previous = v;
+      previous_x = x;
     }
-    if (crossed) {
-      numerics::RootOptions options;
-      options.relative_tolerance = 1e-13;
-      found = ScanResult{*v == 0 ? x : numerics::find_root(f, previous_x, x, what, options).x, std::nullopt};
-    }
-    previous = v;
-    previous_x = x;
+    if (found) return *found;
   }
-  if (found) return *found;
   refuse(no_solution);
 }
 

@@ -397,6 +397,11 @@ void round_trips(long cases, bool water) {
               worst_conditioned = std::max(worst_conditioned, d);
               continue;
             }
+            // The solver found another solution than the point: its scan must have met
+            // the point as a second one and said so.
+            bool warned = false;
+            for (const auto& w : r.warnings) warned = warned || w.find("has a second solution near") != std::string::npos;
+            CHECK(warned);
             if (other_solution++ < 5) {
               std::cout << "  another solution: " << c->label << ", solving for " << direction << ": T1 "
                         << r.inlet.temperature << " K (point " << c->point.T1 << "), p1 " << r.inlet.pressure
