@@ -2,21 +2,7 @@
 # rate POINTS.csv --case TEMPLATE.json end to end: exit codes, csv and jsonl, standard
 # input, -o whole or not at all, messages, and memory that does not grow with the input.
 # Run by ctest from the repository root as: bash tests/cli/batch.sh <shaftwork binary>
-set -u
-bin=$1
-tmp=$(mktemp -d)
-trap 'rm -rf "$tmp"' EXIT
-passed=0
-failed=0
-
-expect() {  # expect NAME CONDITION-RESULT(0 = ok) DETAIL
-  if [ "$2" -eq 0 ]; then
-    passed=$((passed + 1))
-  else
-    failed=$((failed + 1))
-    echo "FAILED: $1 ${3:-}"
-  fi
-}
+source "$(dirname "$0")/checks.bash"
 
 log=examples/compressor-week-log.csv
 template=examples/compressor-week-log.template.json
@@ -139,5 +125,4 @@ assert peak_mb < 100, peak_mb
 PY
 expect "two million rows rate in under 100 MB resident" $?
 
-echo "$passed passed, $failed failed"
-[ "$failed" -eq 0 ]
+finish

@@ -1,21 +1,7 @@
 #!/usr/bin/env bash
 # The rate command end to end: exit codes, stdin, -o, formats, messages.
 # Run by ctest from the repository root as: bash tests/cli/rate.sh <shaftwork binary>
-set -u
-bin=$1
-tmp=$(mktemp -d)
-trap 'rm -rf "$tmp"' EXIT
-passed=0
-failed=0
-
-expect() {  # expect NAME CONDITION-RESULT(0 = ok) DETAIL
-  if [ "$2" -eq 0 ]; then
-    passed=$((passed + 1))
-  else
-    failed=$((failed + 1))
-    echo "FAILED: $1 ${3:-}"
-  fi
-}
+source "$(dirname "$0")/checks.bash"
 
 # Every bundled example rates, exit 0, in all three formats.
 for format in table json csv; do
@@ -108,5 +94,4 @@ expect "misspelt key warned" $?
 grep -q "psia\|psig\|degF" "$tmp/us.txt" && grep -q " hp" "$tmp/us.txt"
 expect "--units us shows US units" $?
 
-echo "$passed passed, $failed failed"
-[ "$failed" -eq 0 ]
+finish

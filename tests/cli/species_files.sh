@@ -2,15 +2,7 @@
 # Species files users bring (--species-file), in each of the three formats the
 # loader reads, through the command line.
 # Run by ctest from the repository root as: bash tests/cli/species_files.sh <shaftwork binary>
-set -u
-bin=$1
-tmp=$(mktemp -d)
-trap 'rm -rf "$tmp"' EXIT
-passed=0
-failed=0
-expect() {
-  if [ "$2" -eq 0 ]; then passed=$((passed + 1)); else failed=$((failed + 1)); echo "FAILED: $1 ${3:-}"; fi
-}
+source "$(dirname "$0")/checks.bash"
 
 # The reference: built-in N2 at one state, as JSON.
 "$bin" state --fluid nitrogen --pressure "2 bar" --temperature "700 K" --format json >"$tmp/ref.json"
@@ -54,5 +46,4 @@ expect "a malformed species file exits 2" $([ $? -eq 2 ]; echo $?)
 grep -q "bad.inp:3:" "$tmp/bad.err"
 expect "the message names the file and line" $? "$(cat "$tmp/bad.err")"
 
-echo "$passed passed, $failed failed"
-[ "$failed" -eq 0 ]
+finish
