@@ -78,6 +78,12 @@ std::string_view trim(std::string_view s) {
   return s.substr(first, last - first + 1);
 }
 
+// A blank line or a comment ('!' in NASA's files, '#' in ours) between records.
+bool is_comment_line(std::string_view s) {
+  s = trim(s);
+  return s.empty() || s.front() == '!' || s.front() == '#';
+}
+
 std::vector<std::string_view> split_words(std::string_view s) {
   std::vector<std::string_view> words;
   while (true) {
@@ -382,9 +388,14 @@ SpeciesLibrary SpeciesLibrary::parse_own_format(std::string_view text, const std
          fmt::format("{}: the text ends inside the block that begins on line {} (no 'end')",
                      block->species.name, block->first_line));
   }
+  return from_parts(std::move(builder.species), std::move(builder.aliases));
+}
+
+SpeciesLibrary SpeciesLibrary::from_parts(std::vector<NasaSpecies> species,
+                                          std::vector<std::pair<std::string, std::string>> aliases) {
   SpeciesLibrary library;
-  library.species_ = std::move(builder.species);
-  library.aliases_ = std::move(builder.aliases);
+  library.species_ = std::move(species);
+  library.aliases_ = std::move(aliases);
   return library;
 }
 
@@ -402,13 +413,9 @@ SpeciesLibrary SpeciesLibrary::parse_own_format(std::string_view text, const std
 SpeciesLibrary SpeciesLibrary::parse_nasa9(std::string_view text, const std::string& origin) {
   const std::vector<Line> lines = split_lines(text);
   Builder builder(origin);
-  auto is_comment = [](std::string_view s) {
-    s = trim(s);
-    return s.empty() || s.front() == '!' || s.front() == '#';
-  };
   std::size_t i = 0;
   while (i < lines.size()) {
-    if (is_comment(lines[i].text)) {
+    if (is_comment_line(lines[i].text)) {
       ++i;
       continue;
     }
@@ -417,7 +424,7 @@ SpeciesLibrary SpeciesLibrary::parse_nasa9(std::string_view text, const std::str
       // The line after 'thermo' holds the global temperature ranges (and a date).
       const int thermo_line = lines[i].number;
       ++i;
-      while (i < lines.size() && is_comment(lines[i].text)) ++i;
+      while (i < lines.size() && is_comment_line(lines[i].text)) ++i;
       const auto words = i < lines.size() ? split_words(lines[i].text) : std::vector<std::string_view>{};
       if (words.empty() || !parse_number(words[0])) {
         fail(origin, i < lines.size() ? lines[i].number : thermo_line,
@@ -528,10 +535,7 @@ SpeciesLibrary SpeciesLibrary::parse_nasa9(std::string_view text, const std::str
     builder.add(std::move(sp), record_line, interval_lines);
     i = start + 2 + 3 * count;
   }
-  SpeciesLibrary library;
-  library.species_ = std::move(builder.species);
-  library.aliases_ = std::move(builder.aliases);
-  return library;
+  return from_parts(std::move(builder.species), std::move(builder.aliases));
 }
 
 // =======================================================================================
@@ -555,20 +559,16 @@ SpeciesLibrary SpeciesLibrary::parse_nasa7(std::string_view text, const std::str
   const std::vector<Line> lines = split_lines(text);
   Builder builder(origin);
   std::optional<double> global_common;
-  auto is_comment = [](std::string_view s) {
-    s = trim(s);
-    return s.empty() || s.front() == '!' || s.front() == '#';
-  };
   std::size_t i = 0;
   while (i < lines.size()) {
-    if (is_comment(lines[i].text)) {
+    if (is_comment_line(lines[i].text)) {
       ++i;
       continue;
     }
     const std::string word = first_word_upper(lines[i].text);
     if (word == "THERMO") {
       ++i;
-      while (i < lines.size() && is_comment(lines[i].text)) ++i;
+      while (i < lines.size() && is_comment_line(lines[i].text)) ++i;
       if (i < lines.size()) {
         const auto words = split_words(lines[i].text);
         if (words.size() >= 3 && parse_number(words[0]) && parse_number(words[1]) &&
@@ -706,10 +706,7 @@ SpeciesLibrary SpeciesLibrary::parse_nasa7(std::string_view text, const std::str
     builder.add(std::move(sp), record_line, {record_line, record_line});
     i = start + 4;
   }
-  SpeciesLibrary library;
-  library.species_ = std::move(builder.species);
-  library.aliases_ = std::move(builder.aliases);
-  return library;
+  return from_parts(std::move(builder.species), std::move(builder.aliases));
 }
 
 // =======================================================================================

@@ -79,6 +79,10 @@ class SpeciesLibrary {
   void merge(const SpeciesLibrary& other);
 
  private:
+  // A library of species already checked, with their aliases (the parsers' last step).
+  static SpeciesLibrary from_parts(std::vector<NasaSpecies> species,
+                                   std::vector<std::pair<std::string, std::string>> aliases);
+
   std::vector<NasaSpecies> species_;
   std::vector<std::pair<std::string, std::string>> aliases_;  // {alias, species name}
 };
