@@ -132,6 +132,19 @@ std::optional<double> parse_number(std::string_view field) {
   throw Error(ErrorKind::bad_input, fmt::format("{}:{}: {}", origin, line, what));
 }
 
+// The number in columns first..last (1-based, inclusive) of a fixed-column record line;
+// a field that holds none is an error naming the species, the columns and `what`.
+double number_in_columns(const Line& line, std::size_t first, std::size_t last, const std::string& what,
+                         const std::string& species, const std::string& origin) {
+  const auto value = parse_number(columns(line.text, first, last));
+  if (!value) {
+    fail(origin, line.number,
+         fmt::format("{}: columns {}-{} should hold {}, found '{}'", species, first, last, what,
+                     trim(columns(line.text, first, last))));
+  }
+  return *value;
+}
+
 // ---------------------------------------------------------------------------------------
 // The load check
 
@@ -456,15 +469,8 @@ SpeciesLibrary SpeciesLibrary::parse_nasa9(std::string_view text, const std::str
       }
       return lines[start + offset];
     };
-    auto number_at = [&](const Line& line, std::size_t first, std::size_t last,
-                         const std::string& what) -> double {
-      const auto value = parse_number(columns(line.text, first, last));
-      if (!value) {
-        fail(origin, line.number,
-             fmt::format("{}: columns {}-{} should hold {}, found '{}'", sp.name, first, last, what,
-                         trim(columns(line.text, first, last))));
-      }
-      return *value;
+    auto number_at = [&](const Line& line, std::size_t first, std::size_t last, const std::string& what) {
+      return number_in_columns(line, first, last, what, sp.name, origin);
     };
 
     const Line& second = record_line_at(1, "line 2 (number of intervals, formula, molecular weight)");
@@ -607,15 +613,8 @@ SpeciesLibrary SpeciesLibrary::parse_nasa7(std::string_view text, const std::str
                          sp.name, r + 1, r + 1, mark));
       }
     }
-    auto number_at = [&](const Line& line, std::size_t first, std::size_t last,
-                         const std::string& what) -> double {
-      const auto value = parse_number(columns(line.text, first, last));
-      if (!value) {
-        fail(origin, line.number,
-             fmt::format("{}: columns {}-{} should hold {}, found '{}'", sp.name, first, last, what,
-                         trim(columns(line.text, first, last))));
-      }
-      return *value;
+    auto number_at = [&](const Line& line, std::size_t first, std::size_t last, const std::string& what) {
+      return number_in_columns(line, first, last, what, sp.name, origin);
     };
 
     const Line& head = lines[start];

@@ -13,6 +13,7 @@
 #include "shaftwork/io/batch.hpp"
 #include "shaftwork/io/case_runner.hpp"
 #include "shaftwork/io/csv_reader.hpp"
+#include "io/string_source.hpp"
 
 using namespace shaftwork;
 using nlohmann::json;
@@ -20,21 +21,7 @@ using nlohmann::ordered_json;
 
 namespace {
 
-class StringSource final : public io::ByteSource {
- public:
-  StringSource(std::string text, std::size_t step) : text_(std::move(text)), step_(step) {}
-  std::size_t read(char* buffer, std::size_t capacity) override {
-    const std::size_t n = std::min({capacity, step_, text_.size() - pos_});
-    std::copy_n(text_.data() + pos_, n, buffer);
-    pos_ += n;
-    return n;
-  }
-
- private:
-  std::string text_;
-  std::size_t step_;
-  std::size_t pos_ = 0;
-};
+using test::StringSource;
 
 class StringSink final : public io::ByteSink {
  public:

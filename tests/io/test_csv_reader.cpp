@@ -9,6 +9,7 @@
 
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/csv_reader.hpp"
+#include "io/string_source.hpp"
 
 using namespace shaftwork;
 using io::CsvRow;
@@ -16,22 +17,7 @@ using Fields = std::vector<std::string>;
 
 namespace {
 
-// Hands out a string in pieces of at most `step` bytes, as a pipe might.
-class StringSource final : public io::ByteSource {
- public:
-  StringSource(std::string text, std::size_t step) : text_(std::move(text)), step_(step) {}
-  std::size_t read(char* buffer, std::size_t capacity) override {
-    const std::size_t n = std::min({capacity, step_, text_.size() - pos_});
-    std::copy_n(text_.data() + pos_, n, buffer);
-    pos_ += n;
-    return n;
-  }
-
- private:
-  std::string text_;
-  std::size_t step_;
-  std::size_t pos_ = 0;
-};
+using test::StringSource;
 
 // Every record of `text` read through the chunker with chunks of about `target` bytes,
 // arriving `step` bytes at a time; each row's fields, or its error, with its line.
