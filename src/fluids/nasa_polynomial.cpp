@@ -136,6 +136,26 @@ struct NasaPolynomialGas::Impl {
     return pieces[i];
   }
 
+  // The temperature at which a property tabulated on `grid` (H°/R or S°/R at the cell
+  // ends) reaches `target`: a Hermite guess in its cell (`guess`), then safeguarded
+  // Newton on `residual` within the neighbouring cells. A target outside the grid by no
+  // more than `slack` (a state this model gave at an end of its range, rounded) stands
+  // for that end; further out, `refuse(below)` throws the caller's out-of-range error.
+  template <class Guess, class Residual, class Refuse>
+  double temperature_for(double target, const std::vector<double>& grid, double slack, Guess guess,
+                         Residual residual, const std::string& solve_label, Refuse refuse) const {
+    if (!(target >= grid.front() && target <= grid.back())) {
+      if (target < grid.front() && target >= grid.front() - slack) return range.low;
+      if (target > grid.back() && target <= grid.back() + slack) return range.high;
+      refuse(target < grid.front());
+    }
+    const std::size_t k = cell_of(grid, target);
+    const double low = cells[k == 0 ? 0 : k - 1].t0;
+    const double high = cells[std::min(k + 1, cells.size() - 1)].t1;
+    return numerics::newton_bracketed(residual, guess(cells[k]), low, high, kTolerance, kMaxIterations,
+                                      solve_label.c_str());
+  }
+
   State state(double p, double T) const {
     const Values v = evaluate(piece_at(T), T);
     State st;
@@ -354,29 +374,20 @@ State NasaPolynomialGas::from_ph(double p, double h) const {
   detail::check_pressure(p, m.label.c_str());
   detail::check_finite(h, "enthalpy", m.label.c_str());
   const double target = h / m.gas_constant;  // H°/R, K
-  // A state the model itself gave at an end of its range comes back a rounding error
-  // outside it; such a target stands for the end itself.
-  const double slack = kEndSlack * (std::fabs(target) + m.range.high);
-  if (!(target >= m.h_grid.front() && target <= m.h_grid.back())) {
-    if (target < m.h_grid.front() && target >= m.h_grid.front() - slack) return m.state(p, m.range.low);
-    if (target > m.h_grid.back() && target <= m.h_grid.back() + slack) return m.state(p, m.range.high);
-    throw Error(ErrorKind::out_of_range,
-                fmt::format("{}: enthalpy {:.6g} J/kg needs a temperature {} the model's range {:g} "
-                            "to {:g} K",
-                            m.label, h, target < m.h_grid.front() ? "below" : "above", m.range.low,
-                            m.range.high));
-  }
-  const std::size_t k = m.cell_of(m.h_grid, target);
-  const Cell& cell = m.cells[k];
-  const double guess = hermite(target, cell.h0, cell.h1, cell.t0, cell.t1, cell.dtdh0, cell.dtdh1);
-  const double low = m.cells[k == 0 ? 0 : k - 1].t0;
-  const double high = m.cells[std::min(k + 1, m.cells.size() - 1)].t1;
-  const double T = numerics::newton_bracketed(
+  const double T = m.temperature_for(
+      target, m.h_grid, kEndSlack * (std::fabs(target) + m.range.high),
+      [&](const Cell& c) { return hermite(target, c.h0, c.h1, c.t0, c.t1, c.dtdh0, c.dtdh1); },
       [&](double t) {
         const Values v = evaluate(m.piece_at(t), t);
         return numerics::ValueAndSlope{v.h_r - target, v.cp_r};
       },
-      guess, low, high, kTolerance, kMaxIterations, m.solve_ph_label.c_str());
+      m.solve_ph_label,
+      [&](bool below) {
+        throw Error(ErrorKind::out_of_range,
+                    fmt::format("{}: enthalpy {:.6g} J/kg needs a temperature {} the model's range {:g} "
+                                "to {:g} K",
+                                m.label, h, below ? "below" : "above", m.range.low, m.range.high));
+      });
   return m.state(p, T);
 }
 
@@ -386,27 +397,20 @@ State NasaPolynomialGas::from_ps(double p, double s) const {
   detail::check_finite(s, "entropy", m.label.c_str());
   const double log_p = std::log(p / kStandardPressure);
   const double target = s / m.gas_constant + log_p;  // S°/R at p°
-  const double slack = kEndSlack * (std::fabs(target) + std::fabs(log_p) + 1.0);
-  if (!(target >= m.s_grid.front() && target <= m.s_grid.back())) {
-    if (target < m.s_grid.front() && target >= m.s_grid.front() - slack) return m.state(p, m.range.low);
-    if (target > m.s_grid.back() && target <= m.s_grid.back() + slack) return m.state(p, m.range.high);
-    throw Error(ErrorKind::out_of_range,
-                fmt::format("{}: entropy {:.6g} J/(kg K) at {:.6g} Pa needs a temperature {} the "
-                            "model's range {:g} to {:g} K",
-                            m.label, s, p, target < m.s_grid.front() ? "below" : "above",
-                            m.range.low, m.range.high));
-  }
-  const std::size_t k = m.cell_of(m.s_grid, target);
-  const Cell& cell = m.cells[k];
-  const double guess = hermite(target, cell.s0, cell.s1, cell.t0, cell.t1, cell.dtds0, cell.dtds1);
-  const double low = m.cells[k == 0 ? 0 : k - 1].t0;
-  const double high = m.cells[std::min(k + 1, m.cells.size() - 1)].t1;
-  const double T = numerics::newton_bracketed(
+  const double T = m.temperature_for(
+      target, m.s_grid, kEndSlack * (std::fabs(target) + std::fabs(log_p) + 1.0),
+      [&](const Cell& c) { return hermite(target, c.s0, c.s1, c.t0, c.t1, c.dtds0, c.dtds1); },
       [&](double t) {
         const Values v = evaluate(m.piece_at(t), t);
         return numerics::ValueAndSlope{v.s_r - target, v.cp_r / t};
       },
-      guess, low, high, kTolerance, kMaxIterations, m.solve_ps_label.c_str());
+      m.solve_ps_label,
+      [&](bool below) {
+        throw Error(ErrorKind::out_of_range,
+                    fmt::format("{}: entropy {:.6g} J/(kg K) at {:.6g} Pa needs a temperature {} the "
+                                "model's range {:g} to {:g} K",
+                                m.label, s, p, below ? "below" : "above", m.range.low, m.range.high));
+      });
   return m.state(p, T);
 }
 
