@@ -21,6 +21,11 @@
 namespace shaftwork::cli {
 namespace {
 
+// Notices of the batch (columns carried through) go to standard error.
+class StderrNotices final : public io::BatchNotices {
+ public:
+  void notice(const std::string& text) override { std::cerr << "notice: " << text << '\n'; }
+};
 
 }  // namespace
 
@@ -35,6 +40,7 @@ int run_batch(const BatchCommandOptions& options) {
     batch.format = options.format == "jsonl" ? io::BatchFormat::jsonl : io::BatchFormat::csv;
     batch.units = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
     batch.jobs = options.jobs > 0 ? options.jobs : std::max(1u, std::thread::hardware_concurrency());
+    batch.columns = options.columns;
 
     const bool from_stdin = options.points == "-";
     const std::string points_name = from_stdin ? "standard input" : options.points;
@@ -53,7 +59,9 @@ int run_batch(const BatchCommandOptions& options) {
     std::unique_ptr<ProgressLine> progress;
     if (!options.quiet && ProgressLine::wanted()) progress = std::make_unique<ProgressLine>();
 
-    const io::BatchSummary summary = io::rate_batch(*source, points_name, templ, *sink, batch, progress.get());
+    StderrNotices notices;
+    const io::BatchSummary summary =
+        io::rate_batch(*source, points_name, templ, *sink, batch, progress.get(), &notices);
     if (file) file->commit();
     if (summary.failed > 0) {
       std::cerr << fmt::format("error: {} of {} rows could not be rated; each one's \"error\" says why\n",

@@ -34,6 +34,8 @@ struct RateOptions {
   unsigned jobs = 0;
   bool quiet = false;
   bool format_given = false;
+  bool units_given = false;
+  std::vector<std::string> columns;  // --columns: result keys of a batch's csv
 };
 
 
@@ -68,7 +70,11 @@ int run_rate(const RateOptions& options) {
   } else if (options.format == "csv") {
     io::write_csv(text, outcomes, system);
   } else {
-    io::write_table(text, outcomes, system);
+    io::TableOptions table;
+    table.system = system;
+    table.system_forced = options.units_given;
+    table.show_origin = options.files.size() > 1;
+    io::write_table(text, outcomes, table);
   }
 
   bool case_failed = false;
@@ -123,6 +129,7 @@ int run_rate_batch(const RateOptions& options) {
   batch.jobs = options.jobs;
   batch.quiet = options.quiet;
   batch.species_files = options.species_files;
+  batch.columns = options.columns;
   return run_batch(batch);
 }
 
@@ -137,9 +144,14 @@ void install_rate(CLI::App& sub, int& exit_status) {
                                 "Output format (jsonl: one result per line; a batch writes csv or jsonl)")
                      ->check(CLI::IsMember({"table", "json", "csv", "jsonl"}))
                      ->capture_default_str();
-  sub.add_option("--units", options->units, "Units of table and csv output (json is always SI)")
-      ->check(CLI::IsMember({"si", "us"}))
-      ->capture_default_str();
+  auto* units = sub.add_option("--units", options->units,
+                                "Units of table and csv output (json is always SI); a table otherwise shows each "
+                                "case in the units it was given in")
+                     ->check(CLI::IsMember({"si", "us"}))
+                     ->capture_default_str();
+  sub.add_option("--columns", options->columns,
+                 "Result columns of a batch's csv, by dotted result key (comma-separated); default: the usual set")
+      ->delimiter(',');
   sub.add_option("-o,--output", options->output, "Write the results to this file (whole or not at all)");
   sub.add_option("--species-file", options->species_files,
                  "Extra species in the NASA 9-coefficient format (may be repeated)");
@@ -147,8 +159,9 @@ void install_rate(CLI::App& sub, int& exit_status) {
                  "Template case file for a CSV of test points: what every row shares (docs/batch.md)");
   sub.add_option("--jobs", options->jobs, "Threads for a batch (default: every core)")->check(CLI::PositiveNumber);
   sub.add_flag("--quiet", options->quiet, "No progress line for a long batch");
-  sub.callback([options, format, &exit_status] {
+  sub.callback([options, format, units, &exit_status] {
     options->format_given = format->count() > 0;
+    options->units_given = units->count() > 0;
     const bool batch = !options->template_file.empty() ||
                        std::any_of(options->files.begin(), options->files.end(),
                                    [](const std::string& f) { return ends_with(f, ".csv") || ends_with(f, ".CSV"); });

@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 
 #include "shaftwork/error.hpp"
+#include "shaftwork/io/case_reader.hpp"
 
 namespace shaftwork::io {
 
@@ -81,13 +82,14 @@ json parse_json_strict(std::string_view text, const std::string& origin) {
   return document;
 }
 
-CaseOutcome rate_case(const json& case_object, size_t index, FluidFactory& fluids) {
+CaseOutcome rate_case(const json& case_object, size_t index, FluidFactory& fluids, const std::string& origin) {
   CaseOutcome outcome;
   outcome.id = case_label(case_object, index);
+  outcome.origin = origin;
   try {
-    CaseInput input = read_case(case_object, index, fluids);
+    CaseInput input = read_case(case_object, index, fluids, origin);
     outcome.warnings = input.warnings;
-    machines::Rating rating = machines::rate(input.rating);
+    machines::Rating rating = machines::rate(to_rating_input(input));
     outcome.warnings.insert(outcome.warnings.end(), rating.warnings.begin(), rating.warnings.end());
     outcome.input = std::move(input);
     outcome.rating = std::move(rating);
@@ -103,7 +105,7 @@ std::vector<CaseOutcome> rate_document(const json& document, const std::string& 
   std::vector<CaseOutcome> outcomes;
   const auto cases = case_objects(document, origin);
   outcomes.reserve(cases.size());
-  for (size_t i = 0; i < cases.size(); ++i) outcomes.push_back(rate_case(*cases[i], i, fluids));
+  for (size_t i = 0; i < cases.size(); ++i) outcomes.push_back(rate_case(*cases[i], i, fluids, origin));
   return outcomes;
 }
 

@@ -171,13 +171,23 @@ void FluidFactory::add_species_file(const std::string& path) {
     // An empty file, or one of condensed phases only: most likely the wrong file.
     refuse(fmt::format("{}: no gas-phase species in the file", path));
   }
+  const std::lock_guard lock(mutex_);
   species_->merge(added);
   cache_.clear();  // definitions may now mean other species
+}
+
+std::string FluidFactory::label(const json& fluid, const fluids::FluidModel& model) {
+  if (fluid.is_string()) return fluid.get<std::string>();
+  if (fluid.is_object() && fluid.contains("species") && fluid["species"].is_string()) {
+    return fluid["species"].get<std::string>();
+  }
+  return model.description();
 }
 
 std::shared_ptr<const fluids::FluidModel> FluidFactory::make(const json& fluid, const std::string& path,
                                                              std::vector<std::string>& warnings) {
   std::string key = fluid.dump();
+  const std::lock_guard lock(mutex_);
   if (auto it = cache_.find(key); it != cache_.end()) {
     warnings.insert(warnings.end(), it->second.warnings.begin(), it->second.warnings.end());
     return it->second.model;

@@ -19,8 +19,9 @@ namespace shaftwork::io {
 // file would otherwise mean two things. Throws bad_input naming origin, line and column.
 nlohmann::json parse_json_strict(std::string_view text, const std::string& origin);
 
-// Rates one case object; never throws for a problem of the case itself.
-CaseOutcome rate_case(const nlohmann::json& case_object, size_t index, FluidFactory& fluids);
+// Rates one case object of the file `origin`; never throws for a problem of the case itself.
+CaseOutcome rate_case(const nlohmann::json& case_object, size_t index, FluidFactory& fluids,
+                      const std::string& origin = "");
 
 // Rates every case of a document. Throws bad_input when it is not a case file.
 std::vector<CaseOutcome> rate_document(const nlohmann::json& document, const std::string& origin,

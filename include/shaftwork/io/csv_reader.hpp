@@ -13,6 +13,7 @@
 // quoted field is named by its first line.
 #pragma once
 
+#include <algorithm>
 #include <cstddef>
 #include <string>
 #include <string_view>
@@ -43,6 +44,10 @@ class CsvChunker {
 
   // Bytes taken from the source so far (for progress).
   std::size_t bytes_read() const { return bytes_read_; }
+
+  // The size of the chunks to come (slow rows want small chunks, so that every worker
+  // has one and progress shows often).
+  void set_target_size(std::size_t bytes) { target_size_ = std::max<std::size_t>(bytes, 16); }
 
  private:
   // Reads one block into `text`; returns false at the end of input.

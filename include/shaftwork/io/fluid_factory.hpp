@@ -8,6 +8,7 @@
 
 #include <map>
 #include <memory>
+#include <mutex>
 #include <string>
 #include <vector>
 
@@ -43,6 +44,10 @@ class FluidFactory {
   std::shared_ptr<const fluids::FluidModel> make(const nlohmann::json& fluid, const std::string& path,
                                                  std::vector<std::string>& warnings);
 
+  // A short label for results: the name of a named fluid or species, else the model's
+  // own description (an inline mixture lists its species and mole fractions).
+  static std::string label(const nlohmann::json& fluid, const fluids::FluidModel& model);
+
   const fluids::SpeciesLibrary& species() const { return *species_; }
 
  private:
@@ -54,6 +59,7 @@ class FluidFactory {
     std::shared_ptr<const fluids::FluidModel> model;
     std::vector<std::string> warnings;
   };
+  std::mutex mutex_;                    // guards cache_: cases may be read on several threads
   std::map<std::string, Built> cache_;  // by the definition's JSON text
 };
 
