@@ -27,6 +27,14 @@ std::vector<std::string> read_header(Job& first, const std::string& points_name,
   if (!parser.next(record)) refuse(fmt::format("{}: the input is empty: expected a header row", points_name));
   if (!record.error.empty()) refuse(fmt::format("{}: line {}: {}", points_name, record.line, record.error));
   header_line = record.line;
+  // A header that takes the whole input and holds a carriage return: the lines end with CR
+  // alone (classic Mac OS), which RFC 4180 does not know; its cells would run together.
+  const bool whole_input = parser.position() == first.chunk.text.size();
+  if (whole_input && std::any_of(record.fields.begin(), record.fields.end(),
+                                 [](std::string_view f) { return f.find('\r') != std::string_view::npos; })) {
+    refuse(fmt::format("{}: the lines end with a carriage return alone; save the file with LF or CRLF line ends",
+                       points_name));
+  }
   std::vector<std::string> header(record.fields.begin(), record.fields.end());
   first.chunk.text.erase(0, parser.position());
   first.chunk.first_line = parser.line();
@@ -74,10 +82,101 @@ BatchTemplate read_batch_template(const nlohmann::json& document, const std::str
   return templ;
 }
 
+namespace {
+
+// Rates the chunks and writes them in order: on the calling thread, or through a pool.
+class Pipeline {
+ public:
+  Pipeline(CsvChunker& chunker, const BatchShared& shared, ByteSink& out, BatchProgress* progress,
+           std::size_t size_hint)
+      : chunker_(chunker), shared_(shared), out_(out), progress_(progress), size_hint_(size_hint),
+        sizer_(shared.options.chunk_bytes) {}
+
+  BatchSummary run(std::unique_ptr<Job> first) {
+    if (shared_.options.jobs <= 1) {
+      run_here(*first);
+    } else {
+      run_pooled(std::move(first));
+    }
+    if (progress_) progress_->finish(summary_.rows);
+    return summary_;
+  }
+
+ private:
+  void run_here(Job& job) {
+    RowRater rater(shared_);
+    for (bool more = true; more; more = next(job)) {
+      const auto chunk_start = std::chrono::steady_clock::now();
+      rater.rate_chunk(job.chunk, job.out, job.rows, job.failed);
+      sizer_.observe(job.chunk.text.size(), seconds_since(chunk_start));
+      finish(job);
+    }
+  }
+
+  // A few chunks per worker in flight: enough to keep every worker busy while the oldest
+  // is written, few enough that memory does not follow the input's length.
+  void run_pooled(std::unique_ptr<Job> first) {
+    const unsigned jobs = shared_.options.jobs;
+    const std::size_t max_in_flight = 2 * static_cast<std::size_t>(jobs) + 1;
+    std::vector<std::unique_ptr<Job>> spare;
+    std::deque<std::unique_ptr<Job>> in_flight;
+    WorkerPool pool(shared_, jobs);
+    pool.submit(first.get());
+    in_flight.push_back(std::move(first));
+    const auto start = std::chrono::steady_clock::now();
+    std::size_t bytes_done = 0;
+    for (bool more = true; more || !in_flight.empty();) {
+      while (more && in_flight.size() < max_in_flight) {
+        std::unique_ptr<Job> job = spare.empty() ? std::make_unique<Job>() : std::move(spare.back());
+        if (!spare.empty()) spare.pop_back();
+        if (!(more = next(*job))) break;
+        pool.submit(job.get());
+        in_flight.push_back(std::move(job));
+      }
+      if (in_flight.empty()) break;
+      std::unique_ptr<Job> job = std::move(in_flight.front());
+      in_flight.pop_front();
+      pool.wait(job.get());
+      // The pool's throughput so far, per worker, sizes the chunks still to come.
+      bytes_done += job->chunk.text.size();
+      sizer_.observe(bytes_done / jobs, seconds_since(start));
+      finish(*job);
+      spare.push_back(std::move(job));
+    }
+  }
+
+  // The next chunk into `job`, its output and counts cleared; false at the end.
+  bool next(Job& job) {
+    chunker_.set_target_size(sizer_.next());
+    if (!chunker_.next(job.chunk)) return false;
+    job.out.clear();
+    job.rows = job.failed = 0;
+    job.done = false;
+    return true;
+  }
+
+  void finish(Job& job) {
+    if (job.error) std::rethrow_exception(job.error);
+    out_.write(job.out.view());
+    summary_.rows += job.rows;
+    summary_.failed += job.failed;
+    if (progress_) progress_->update(summary_.rows, chunker_.bytes_read(), size_hint_);
+  }
+
+  CsvChunker& chunker_;
+  const BatchShared& shared_;
+  ByteSink& out_;
+  BatchProgress* progress_;
+  std::size_t size_hint_;
+  ChunkSizer sizer_;
+  BatchSummary summary_;
+};
+
+}  // namespace
+
 BatchSummary rate_batch(ByteSource& points, const std::string& points_name, const BatchTemplate& templ,
                         ByteSink& out, const BatchOptions& options, BatchProgress* progress, BatchNotices* notices) {
-  ChunkSizer sizer(options.chunk_bytes);
-  CsvChunker chunker(points, points_name, sizer.next());
+  CsvChunker chunker(points, points_name, ChunkSizer(options.chunk_bytes).next());
   auto first = std::make_unique<Job>();
   if (!chunker.next(first->chunk)) refuse(fmt::format("{}: the input is empty: expected a header row", points_name));
   std::size_t header_line = 1;
@@ -88,73 +187,7 @@ BatchSummary rate_batch(ByteSource& points, const std::string& points_name, cons
   }
   const BatchShared shared(plan, templ, options, points_name);
   if (options.format == BatchFormat::csv) out.write(plan.output_header);
-
-  BatchSummary summary;
-  const auto start = std::chrono::steady_clock::now();
-  auto finish_job = [&](Job& job) {
-    if (job.error) std::rethrow_exception(job.error);
-    out.write(job.out.view());
-    summary.rows += job.rows;
-    summary.failed += job.failed;
-    if (progress) progress->update(summary.rows, chunker.bytes_read(), points.size_hint());
-  };
-
-  if (options.jobs <= 1) {
-    RowRater rater(shared);
-    Job& job = *first;
-    for (bool more = true; more; more = chunker.next(job.chunk)) {
-      job.out.clear();
-      job.rows = job.failed = 0;
-      const auto chunk_start = std::chrono::steady_clock::now();
-      rater.rate_chunk(job.chunk, job.out, job.rows, job.failed);
-      sizer.observe(job.chunk.text.size(), seconds_since(chunk_start));
-      chunker.set_target_size(sizer.next());
-      finish_job(job);
-    }
-  } else {
-    // A few chunks per worker in flight: enough to keep every worker busy while the
-    // oldest is written, few enough that memory does not follow the input's length.
-    const std::size_t max_in_flight = 2 * static_cast<std::size_t>(options.jobs) + 1;
-    std::vector<std::unique_ptr<Job>> spare;
-    std::deque<std::unique_ptr<Job>> in_flight;
-    WorkerPool pool(shared, options.jobs);
-    pool.submit(first.get());
-    in_flight.push_back(std::move(first));
-    bool more = true;
-    std::size_t bytes_done = 0;
-    while (!in_flight.empty() || more) {
-      while (more && in_flight.size() < max_in_flight) {
-        std::unique_ptr<Job> job;
-        if (spare.empty()) {
-          job = std::make_unique<Job>();
-        } else {
-          job = std::move(spare.back());
-          spare.pop_back();
-        }
-        if (!chunker.next(job->chunk)) {
-          more = false;
-          break;
-        }
-        job->out.clear();
-        job->rows = job->failed = 0;
-        job->done = false;
-        pool.submit(job.get());
-        in_flight.push_back(std::move(job));
-      }
-      if (in_flight.empty()) break;
-      std::unique_ptr<Job> job = std::move(in_flight.front());
-      in_flight.pop_front();
-      pool.wait(job.get());
-      bytes_done += job->chunk.text.size();
-      // The pool's throughput so far, per worker, sizes the chunks still to come.
-      sizer.observe(bytes_done / options.jobs, seconds_since(start));
-      chunker.set_target_size(sizer.next());
-      finish_job(*job);
-      spare.push_back(std::move(job));
-    }
-  }
-  if (progress) progress->finish(summary.rows);
-  return summary;
+  return Pipeline(chunker, shared, out, progress, points.size_hint()).run(std::move(first));
 }
 
 }  // namespace shaftwork::io

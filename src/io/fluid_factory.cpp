@@ -206,9 +206,13 @@ std::shared_ptr<const fluids::FluidModel> FluidFactory::build(const json& fluid,
     for (const NamedFluid& named : named_fluids()) {
       if (named.name == name) return build(named.definition, fmt::format("{} (\"{}\")", path, name), warnings);
     }
+    // A species name stands for that species as an ideal gas: "CO2".
+    if (species_->find(name)) return build(json{{"model", "nasa-polynomial"}, {"species", name}}, path, warnings);
     std::vector<std::string> known;
     for (const NamedFluid& named : named_fluids()) known.push_back(named.name);
-    refuse(fmt::format("{}: unknown fluid \"{}\"; named fluids are: {}", path, name, fmt::join(known, ", ")));
+    refuse(fmt::format("{}: unknown fluid \"{}\"; named fluids are: {}; any species of shaftwork fluids may be named "
+                       "too",
+                       path, name, fmt::join(known, ", ")));
   }
   if (!fluid.is_object()) {
     refuse(fmt::format("{}: expected a fluid name or an object with a \"model\", got {}", path, fluid.type_name()));
