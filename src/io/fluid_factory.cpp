@@ -96,6 +96,38 @@ std::shared_ptr<const fluids::FluidModel> make_constant_cp(const json& j, const 
   }
 }
 
+// The basis of a mixture's numbers: "mole" or "mass" (fractions), "mole %" or "mass %"
+// (a gas analysis). Returns true for percent.
+bool read_basis(const json& j, const std::string& path, fluids::CompositionBasis& basis) {
+  if (!j.contains("basis")) return false;
+  const json& b = j["basis"];
+  if (b == "mole" || b == "mole %") basis = fluids::CompositionBasis::mole;
+  else if (b == "mass" || b == "mass %") basis = fluids::CompositionBasis::mass;
+  else refuse(fmt::format("{}.basis: expected \"mole\", \"mass\", \"mole %\" or \"mass %\", got {}", path, b.dump()));
+  return b == "mole %" || b == "mass %";
+}
+
+// A gas analysis in percent is scaled to fractions, with a warning when it is more than
+// 1 % off 100; fractions that sum to about 100 were meant as percent: the message says so.
+void normalise(std::vector<fluids::Component>& components, bool percent, const std::string& path,
+               std::vector<std::string>& warnings) {
+  double sum = 0;
+  for (const auto& c : components) sum += c.fraction;
+  if (!percent) {
+    if (std::fabs(sum - 100) <= 5) {
+      refuse(fmt::format("{}.mixture: the fractions sum to {:.6g}: for a gas analysis in percent, give \"basis\": "
+                         "\"mole %\" (or \"mass %\")",
+                         path, sum));
+    }
+    return;
+  }
+  if (!(sum > 0)) refuse(fmt::format("{}.mixture: the percentages sum to {:.6g}", path, sum));
+  if (std::fabs(sum - 100) > 1) {
+    warnings.push_back(fmt::format("{}.mixture: the analysis sums to {:.6g} %; normalised to 100 %", path, sum));
+  }
+  for (auto& c : components) c.fraction /= sum;
+}
+
 std::shared_ptr<const fluids::FluidModel> make_nasa(const json& j, const std::string& path,
                                                     const fluids::SpeciesLibrary& library,
                                                     std::vector<std::string>& warnings) {
@@ -110,6 +142,7 @@ std::shared_ptr<const fluids::FluidModel> make_nasa(const json& j, const std::st
   };
   std::vector<fluids::Component> components;
   fluids::CompositionBasis basis = fluids::CompositionBasis::mole;
+  bool percent = false;
   if (j.contains("species") == j.contains("mixture")) {
     refuse(fmt::format("{}: a nasa-polynomial fluid needs \"species\" or \"mixture\", one of them", path));
   }
@@ -126,16 +159,8 @@ std::shared_ptr<const fluids::FluidModel> make_nasa(const json& j, const std::st
       const double x = read_quantity(value, units::Dimension::fraction, path + ".mixture." + name, {}, notes).si;
       components.push_back({species_named(name, path + ".mixture"), x});
     }
-    if (j.contains("basis")) {
-      const json& b = j["basis"];
-      if (b == "mole") {
-        basis = fluids::CompositionBasis::mole;
-      } else if (b == "mass") {
-        basis = fluids::CompositionBasis::mass;
-      } else {
-        refuse(fmt::format("{}.basis: expected \"mole\" or \"mass\", got {}", path, b.dump()));
-      }
-    }
+    percent = read_basis(j, path, basis);
+    normalise(components, percent, path, warnings);
   }
   try {
     auto gas = std::make_shared<fluids::NasaPolynomialGas>(components, basis);
