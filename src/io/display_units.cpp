@@ -25,6 +25,8 @@ std::string_view column_unit(Dimension d, UnitSystem system) {
     case Dimension::specific_entropy: return us ? "Btu/(lb R)" : "kJ/(kg K)";
     case Dimension::density: return us ? "lb/ft3" : "kg/m3";
     case Dimension::molar_mass: return "g/mol";
+    case Dimension::rotational_speed: return "rpm";
+    case Dimension::velocity: return us ? "ft/s" : "m/s";
     case Dimension::standard_volume_flow:
     case Dimension::fraction: return "";
   }

@@ -24,6 +24,10 @@ ReadQuantity read_quantity(const nlohmann::json& value, units::Dimension d, cons
                               "Nm3/h, Sm3/h, scfm or MMSCFD",
                               path));
     }
+    if (d == units::Dimension::rotational_speed) {
+      throw Error(ErrorKind::bad_input,
+                  fmt::format("{}: a speed needs its unit: rpm, 1/min, rev/s, Hz or rad/s", path));
+    }
     try {
       return {units::to_si(x, si_symbol(d), d, context, notes), ""};
     } catch (const Error& e) {
@@ -58,6 +62,8 @@ std::string_view si_symbol(units::Dimension d) {
     case units::Dimension::density: return "kg/m3";
     case units::Dimension::molar_mass: return "kg/mol";
     case units::Dimension::standard_volume_flow: return "mol/s";
+    case units::Dimension::velocity: return "m/s";
+    case units::Dimension::rotational_speed: return "1/s";
     case units::Dimension::fraction: return "";
   }
   return "";
