@@ -21,6 +21,19 @@
 namespace shaftwork::cli {
 namespace {
 
+// Rating is arithmetic, so threads beyond the cores only take turns; a few per core are
+// allowed (docs/batch.md), more are capped with a warning rather than asked of the system.
+constexpr unsigned kThreadsPerCore = 4;
+
+unsigned thread_count(unsigned asked) {
+  const unsigned cores = std::max(1u, std::thread::hardware_concurrency());
+  if (asked == 0) return cores;
+  const unsigned cap = kThreadsPerCore * cores;
+  if (asked <= cap) return asked;
+  std::cerr << fmt::format("warning: --jobs: at most {} threads are used on {} cores ({} a core); rating with {}\n",
+                           cap, cores, kThreadsPerCore, cap);
+  return cap;
+}
 
 }  // namespace
 
@@ -34,7 +47,7 @@ int run_batch(const BatchCommandOptions& options) {
     io::BatchOptions batch;
     batch.format = options.format == "jsonl" ? io::BatchFormat::jsonl : io::BatchFormat::csv;
     batch.units = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
-    batch.jobs = options.jobs > 0 ? options.jobs : std::max(1u, std::thread::hardware_concurrency());
+    batch.jobs = thread_count(options.jobs);
 
     const bool from_stdin = options.points == "-";
     const std::string points_name = from_stdin ? "standard input" : options.points;
@@ -55,6 +68,10 @@ int run_batch(const BatchCommandOptions& options) {
 
     const io::BatchSummary summary = io::rate_batch(*source, points_name, templ, *sink, batch, progress.get());
     if (file) file->commit();
+    if (summary.threads < batch.jobs) {
+      std::cerr << fmt::format("warning: the system started {} of the {} threads asked for; the batch was rated on {}\n",
+                               summary.threads, batch.jobs, summary.threads);
+    }
     if (summary.failed > 0) {
       std::cerr << fmt::format("error: {} of {} rows could not be rated; each one's \"error\" says why\n",
                                summary.failed, summary.rows);

@@ -92,6 +92,20 @@ int run_rate(const RateOptions& options) {
   return case_failed ? kExitCaseFailed : kExitOk;
 }
 
+// --jobs: a whole number of threads, at least 1. (CLI11's PositiveNumber answered 0 with the
+// whole range of a double, 309 digits.) A number too large for `unsigned` is taken as the
+// largest one: the cap in batch_command.cpp then says how many threads are used.
+const CLI::Validator kThreadCount(
+    [](std::string& text) -> std::string {
+      const bool digits = !text.empty() && text.find_first_not_of("0123456789") == std::string::npos;
+      if (!digits || text.find_first_not_of('0') == std::string::npos) {
+        return fmt::format("expected a whole number of threads, at least 1; got \"{}\"", text);
+      }
+      if (text.size() > 9) text = "999999999";
+      return "";
+    },
+    "THREADS");
+
 bool ends_with(const std::string& text, std::string_view suffix) {
   return text.size() >= suffix.size() && text.compare(text.size() - suffix.size(), suffix.size(), suffix) == 0;
 }
@@ -145,7 +159,8 @@ void install_rate(CLI::App& sub, int& exit_status) {
                  "Extra species in the NASA 9-coefficient format (may be repeated)");
   sub.add_option("--case", options->template_file,
                  "Template case file for a CSV of test points: what every row shares (docs/batch.md)");
-  sub.add_option("--jobs", options->jobs, "Threads for a batch (default: every core)")->check(CLI::PositiveNumber);
+  sub.add_option("--jobs", options->jobs, "Threads for a batch (default: every core; at most 4 a core)")
+      ->transform(kThreadCount);
   sub.add_flag("--quiet", options->quiet, "No progress line for a long batch");
   sub.callback([options, format, &exit_status] {
     options->format_given = format->count() > 0;

@@ -777,11 +777,17 @@ struct Job {
 };
 
 // Worker threads taking jobs from a queue; the caller waits for each job in turn.
+// Starts as many of the threads asked for as the system allows (std::thread throws
+// std::system_error when it cannot make one, e.g. under a small ulimit -v); with none
+// started, submit() rates each job on the calling thread.
 class WorkerPool {
  public:
-  WorkerPool(const Shared& shared, unsigned threads) {
-    for (unsigned i = 0; i < threads; ++i) {
-      threads_.emplace_back([this, &shared] { work(shared); });
+  WorkerPool(const Shared& shared, unsigned threads) : shared_(shared) {
+    try {
+      threads_.reserve(threads);
+      for (unsigned i = 0; i < threads; ++i) threads_.emplace_back([this] { work(); });
+    } catch (const std::exception&) {
+      // Run with the threads that started.
     }
   }
   WorkerPool(const WorkerPool&) = delete;
@@ -796,7 +802,16 @@ class WorkerPool {
     for (auto& t : threads_) t.join();
   }
 
+  // The threads that rate: those started, or the calling thread alone.
+  unsigned threads() const { return std::max(1u, static_cast<unsigned>(threads_.size())); }
+
   void submit(Job* job) {
+    if (threads_.empty()) {
+      if (!inline_rater_) inline_rater_ = std::make_unique<RowRater>(shared_);
+      run(*inline_rater_, *job);
+      job->done = true;
+      return;
+    }
     {
       const std::lock_guard lock(mutex_);
       queue_.push_back(job);
@@ -810,8 +825,23 @@ class WorkerPool {
   }
 
  private:
-  void work(const Shared& shared) {
-    RowRater rater(shared);
+  static void run(RowRater& rater, Job& job) {
+    try {
+      rater.rate_chunk(job.chunk, job.out, job.rows, job.failed);
+    } catch (...) {
+      job.error = std::current_exception();
+    }
+  }
+
+  void work() {
+    // A rater that cannot be made (memory) fails each job this thread takes.
+    std::unique_ptr<RowRater> rater;
+    std::exception_ptr broken;
+    try {
+      rater = std::make_unique<RowRater>(shared_);
+    } catch (...) {
+      broken = std::current_exception();
+    }
     for (;;) {
       Job* job = nullptr;
       {
@@ -821,10 +851,10 @@ class WorkerPool {
         job = queue_.front();
         queue_.pop_front();
       }
-      try {
-        rater.rate_chunk(job->chunk, job->out, job->rows, job->failed);
-      } catch (...) {
-        job->error = std::current_exception();
+      if (rater) {
+        run(*rater, *job);
+      } else {
+        job->error = broken;
       }
       {
         const std::lock_guard lock(mutex_);
@@ -834,6 +864,8 @@ class WorkerPool {
     }
   }
 
+  const Shared& shared_;
+  std::unique_ptr<RowRater> inline_rater_;
   std::mutex mutex_;
   std::condition_variable work_ready_;
   std::condition_variable job_done_;
@@ -910,6 +942,7 @@ BatchSummary rate_batch(ByteSource& points, const std::string& points_name, cons
     std::vector<std::unique_ptr<Job>> spare;
     std::deque<std::unique_ptr<Job>> in_flight;
     WorkerPool pool(shared, options.jobs);
+    summary.threads = pool.threads();
     pool.submit(first.get());
     in_flight.push_back(std::move(first));
     bool more = true;
