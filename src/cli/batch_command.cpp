@@ -13,6 +13,7 @@
 #include "commands.hpp"
 #include "progress_line.hpp"
 #include "shaftwork/error.hpp"
+#include "shaftwork/io/atomic_file.hpp"
 #include "shaftwork/io/batch.hpp"
 #include "shaftwork/io/byte_stream.hpp"
 #include "shaftwork/io/case_runner.hpp"
@@ -39,6 +40,11 @@ unsigned thread_count(unsigned asked) {
 
 int run_batch(const BatchCommandOptions& options) {
   try {
+    if (!options.output.empty()) {
+      std::vector<std::string> inputs = {options.points, options.template_file};
+      inputs.insert(inputs.end(), options.species_files.begin(), options.species_files.end());
+      io::refuse_output_among_inputs(options.output, inputs);
+    }
     io::FluidFactory fluids;
     for (const auto& path : options.species_files) fluids.add_species_file(path);
     const auto document = io::parse_json_strict(io::read_text_file(options.template_file), options.template_file);
@@ -53,14 +59,14 @@ int run_batch(const BatchCommandOptions& options) {
     const std::string points_name = from_stdin ? "standard input" : options.points;
     std::unique_ptr<io::FdSource> source = std::make_unique<io::FdSource>(
         from_stdin ? io::FdSource(STDIN_FILENO, points_name) : io::FdSource::open(options.points));
-    std::unique_ptr<io::AtomicFileSink> file;
+    std::unique_ptr<io::OutputFile> file;
     std::unique_ptr<io::FdSink> stdout_sink;
     io::ByteSink* sink = nullptr;
     if (options.output.empty()) {
       stdout_sink = std::make_unique<io::FdSink>(STDOUT_FILENO, "standard output");
       sink = stdout_sink.get();
     } else {
-      file = std::make_unique<io::AtomicFileSink>(options.output);
+      file = std::make_unique<io::OutputFile>(options.output);
       sink = file.get();
     }
     std::unique_ptr<ProgressLine> progress;

@@ -6,6 +6,7 @@
 #include <iostream>
 #include <iterator>
 #include <memory>
+#include <optional>
 #include <sstream>
 #include <string>
 #include <string_view>
@@ -37,10 +38,44 @@ struct RateOptions {
 };
 
 
+// Each case's warnings and, for a failed case, its error, on standard error (the results
+// keep them too). Returns whether a case failed.
+bool report_cases(const std::vector<io::CaseOutcome>& outcomes) {
+  bool case_failed = false;
+  for (const auto& o : outcomes) {
+    for (const auto& w : o.warnings) std::cerr << fmt::format("warning: case \"{}\": {}\n", o.id, w);
+    if (!o.ok()) {
+      case_failed = true;
+      std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
+    }
+  }
+  return case_failed;
+}
+
+std::string format_results(const std::vector<io::CaseOutcome>& outcomes, const RateOptions& options) {
+  const io::UnitSystem system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
+  std::ostringstream text;
+  if (options.format == "json") {
+    io::write_json(text, outcomes);
+  } else if (options.format == "jsonl") {
+    for (const auto& o : outcomes) text << io::result_json(o).dump() << '\n';
+  } else if (options.format == "csv") {
+    io::write_csv(text, outcomes, system);
+  } else {
+    io::write_table(text, outcomes, system);
+  }
+  return text.str();
+}
+
 int run_rate(const RateOptions& options) {
   io::FluidFactory fluids;
+  std::optional<io::OutputFile> file;  // opened first: a path it refuses costs no rating
   try {
+    std::vector<std::string> inputs = options.files;
+    inputs.insert(inputs.end(), options.species_files.begin(), options.species_files.end());
+    if (!options.output.empty()) io::refuse_output_among_inputs(options.output, inputs);
     for (const auto& path : options.species_files) fluids.add_species_file(path);
+    if (!options.output.empty()) file.emplace(options.output);
   } catch (const Error& e) {
     std::cerr << "error: " << e.what() << '\n';
     return kExitUnusable;
@@ -58,31 +93,18 @@ int run_rate(const RateOptions& options) {
       file_unusable = true;
     }
   }
-
-  const io::UnitSystem system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
-  std::ostringstream text;
-  if (options.format == "json") {
-    io::write_json(text, outcomes);
-  } else if (options.format == "jsonl") {
-    for (const auto& o : outcomes) text << io::result_json(o).dump() << '\n';
-  } else if (options.format == "csv") {
-    io::write_csv(text, outcomes, system);
-  } else {
-    io::write_table(text, outcomes, system);
-  }
-
-  bool case_failed = false;
-  for (const auto& o : outcomes) {
-    if (!o.ok()) {
-      case_failed = true;
-      std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
-    }
-  }
-  if (options.output.empty()) {
-    std::cout << text.str() << std::flush;
+  const std::string text = format_results(outcomes, options);
+  const bool case_failed = report_cases(outcomes);
+  if (!file) {
+    std::cout << text << std::flush;
+  } else if (file_unusable) {
+    // Exit 2 leaves an existing output file as it was (the temporary file goes with `file`):
+    // the results of some inputs must not pass for the run's.
+    std::cerr << fmt::format("error: {}: not written, since an input could not be used\n", options.output);
   } else {
     try {
-      io::write_file_atomically(options.output, text.str());
+      file->write(text);
+      file->commit();
     } catch (const Error& e) {
       std::cerr << "error: " << e.what() << '\n';
       return kExitUnusable;
