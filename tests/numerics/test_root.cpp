@@ -16,6 +16,7 @@
 
 #include <catch2/catch.hpp>
 
+#include "error_of.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/numerics/root.hpp"
 
@@ -23,6 +24,7 @@ using namespace shaftwork;
 using numerics::RootOptions;
 using numerics::RootResult;
 using numerics::ValueAndSlope;
+using test::error_of;
 
 namespace {
 
@@ -47,21 +49,6 @@ RootResult solve(Finder finder, const Fn& fn, double low, double high, const Roo
   if (finder == Finder::toms748) return numerics::find_root(fn.value, low, high, "x", options);
   auto f = [&fn](double x) { return ValueAndSlope{fn.value(x), fn.slope(x)}; };
   return numerics::newton_root(f, 0.5 * (low + high), low, high, "x", options);
-}
-
-// Runs `call` and returns the Error it throws; fails the test when it throws nothing or
-// something else.
-template <class Call>
-Error error_of(Call&& call) {
-  try {
-    call();
-  } catch (const Error& e) {
-    return e;
-  } catch (const std::exception& e) {
-    FAIL("a std::exception escaped, not shaftwork::Error: " << e.what());
-  }
-  FAIL("no error thrown");
-  return Error(ErrorKind::bad_input, "");
 }
 
 }  // namespace
