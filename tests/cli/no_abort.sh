@@ -56,7 +56,7 @@ done
 # output file behind. Now the batch runs on the threads that started, with a warning, or
 # (when even memory for the rows runs out) stops with "out of memory" and exit 2. The
 # limits tried span both; some must start fewer threads than asked.
-if (ulimit -v 400000 && exec "$bin" --version) >/dev/null 2>&1; then
+if ( (ulimit -v 400000 && exec "$bin" --version) ) >/dev/null 2>&1; then  # the outer shell reports an abort, silenced
   fewer=0
   for kb in 400000 200000 120000 80000 60000 50000 40000 30000 20000 15000; do
     (ulimit -s 8192 -v "$kb" && exec "$bin" rate "$log" --case "$template" --jobs 8 -o "$tmp/limited.csv") \
