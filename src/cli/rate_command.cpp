@@ -6,6 +6,7 @@
 #include <iostream>
 #include <iterator>
 #include <memory>
+#include <optional>
 #include <sstream>
 #include <string>
 #include <string_view>
@@ -39,10 +40,48 @@ struct RateOptions {
 };
 
 
+// Each case's warnings and, for a failed case, its error, on standard error (the results
+// keep them too). Returns whether a case failed.
+bool report_cases(const std::vector<io::CaseOutcome>& outcomes) {
+  bool case_failed = false;
+  for (const auto& o : outcomes) {
+    for (const auto& w : o.warnings) std::cerr << fmt::format("warning: case \"{}\": {}\n", o.id, w);
+    if (!o.ok()) {
+      case_failed = true;
+      std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
+    }
+  }
+  return case_failed;
+}
+
+std::string format_results(const std::vector<io::CaseOutcome>& outcomes, const RateOptions& options) {
+  const io::UnitSystem system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
+  std::ostringstream text;
+  if (options.format == "json") {
+    io::write_json(text, outcomes);
+  } else if (options.format == "jsonl") {
+    for (const auto& o : outcomes) text << io::result_json(o).dump() << '\n';
+  } else if (options.format == "csv") {
+    io::write_csv(text, outcomes, system);
+  } else {
+    io::TableOptions table;
+    table.system = system;
+    table.system_forced = options.units_given;
+    table.show_origin = options.files.size() > 1;
+    io::write_table(text, outcomes, table);
+  }
+  return text.str();
+}
+
 int run_rate(const RateOptions& options) {
   io::FluidFactory fluids;
+  std::optional<io::OutputFile> file;  // opened first: a path it refuses costs no rating
   try {
+    std::vector<std::string> inputs = options.files;
+    inputs.insert(inputs.end(), options.species_files.begin(), options.species_files.end());
+    if (!options.output.empty()) io::refuse_output_among_inputs(options.output, inputs);
     for (const auto& path : options.species_files) fluids.add_species_file(path);
+    if (!options.output.empty()) file.emplace(options.output);
   } catch (const Error& e) {
     std::cerr << "error: " << e.what() << '\n';
     return kExitUnusable;
@@ -60,35 +99,18 @@ int run_rate(const RateOptions& options) {
       file_unusable = true;
     }
   }
-
-  const io::UnitSystem system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
-  std::ostringstream text;
-  if (options.format == "json") {
-    io::write_json(text, outcomes);
-  } else if (options.format == "jsonl") {
-    for (const auto& o : outcomes) text << io::result_json(o).dump() << '\n';
-  } else if (options.format == "csv") {
-    io::write_csv(text, outcomes, system);
-  } else {
-    io::TableOptions table;
-    table.system = system;
-    table.system_forced = options.units_given;
-    table.show_origin = options.files.size() > 1;
-    io::write_table(text, outcomes, table);
-  }
-
-  bool case_failed = false;
-  for (const auto& o : outcomes) {
-    if (!o.ok()) {
-      case_failed = true;
-      std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
-    }
-  }
-  if (options.output.empty()) {
-    std::cout << text.str() << std::flush;
+  const std::string text = format_results(outcomes, options);
+  const bool case_failed = report_cases(outcomes);
+  if (!file) {
+    std::cout << text << std::flush;
+  } else if (file_unusable) {
+    // Exit 2 leaves an existing output file as it was (the temporary file goes with `file`):
+    // the results of some inputs must not pass for the run's.
+    std::cerr << fmt::format("error: {}: not written, since an input could not be used\n", options.output);
   } else {
     try {
-      io::write_file_atomically(options.output, text.str());
+      file->write(text);
+      file->commit();
     } catch (const Error& e) {
       std::cerr << "error: " << e.what() << '\n';
       return kExitUnusable;
@@ -97,6 +119,20 @@ int run_rate(const RateOptions& options) {
   if (file_unusable) return kExitUnusable;
   return case_failed ? kExitCaseFailed : kExitOk;
 }
+
+// --jobs: a whole number of threads, at least 1. (CLI11's PositiveNumber answered 0 with the
+// whole range of a double, 309 digits.) A number too large for `unsigned` is taken as the
+// largest one: the cap in batch_command.cpp then says how many threads are used.
+const CLI::Validator kThreadCount(
+    [](std::string& text) -> std::string {
+      const bool digits = !text.empty() && text.find_first_not_of("0123456789") == std::string::npos;
+      if (!digits || text.find_first_not_of('0') == std::string::npos) {
+        return fmt::format("expected a whole number of threads, at least 1; got \"{}\"", text);
+      }
+      if (text.size() > 9) text = "999999999";
+      return "";
+    },
+    "THREADS");
 
 bool ends_with(const std::string& text, std::string_view suffix) {
   return text.size() >= suffix.size() && text.compare(text.size() - suffix.size(), suffix.size(), suffix) == 0;
@@ -157,7 +193,8 @@ void install_rate(CLI::App& sub, int& exit_status) {
                  "Extra species in the NASA 9-coefficient format (may be repeated)");
   sub.add_option("--case", options->template_file,
                  "Template case file for a CSV of test points: what every row shares (docs/batch.md)");
-  sub.add_option("--jobs", options->jobs, "Threads for a batch (default: every core)")->check(CLI::PositiveNumber);
+  sub.add_option("--jobs", options->jobs, "Threads for a batch (default: every core; at most 4 a core)")
+      ->transform(kThreadCount);
   sub.add_flag("--quiet", options->quiet, "No progress line for a long batch");
   sub.callback([options, format, units, &exit_status] {
     options->format_given = format->count() > 0;

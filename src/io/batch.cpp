@@ -121,6 +121,7 @@ class Pipeline {
     std::vector<std::unique_ptr<Job>> spare;
     std::deque<std::unique_ptr<Job>> in_flight;
     WorkerPool pool(shared_, jobs);
+    summary_.threads = pool.threads();
     pool.submit(first.get());
     in_flight.push_back(std::move(first));
     const auto start = std::chrono::steady_clock::now();
@@ -139,7 +140,7 @@ class Pipeline {
       pool.wait(job.get());
       // The pool's throughput so far, per worker, sizes the chunks still to come.
       bytes_done += job->chunk.text.size();
-      sizer_.observe(bytes_done / jobs, seconds_since(start));
+      sizer_.observe(bytes_done / summary_.threads, seconds_since(start));
       finish(*job);
       spare.push_back(std::move(job));
     }

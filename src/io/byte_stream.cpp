@@ -5,10 +5,8 @@
 #include <unistd.h>
 
 #include <cerrno>
-#include <cstdio>
 #include <cstring>
 #include <utility>
-#include <vector>
 
 #include <fmt/format.h>
 
@@ -69,59 +67,6 @@ bool write_all(int fd, std::string_view bytes) {
 void FdSink::write(std::string_view bytes) {
   if (!write_all(fd_, bytes)) {
     throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write: {}", name_, std::strerror(errno)));
-  }
-}
-
-AtomicFileSink::AtomicFileSink(std::string path) : path_(std::move(path)) {
-  std::vector<char> name(path_.begin(), path_.end());
-  const char suffix[] = ".XXXXXX";
-  name.insert(name.end(), suffix, suffix + sizeof suffix);  // with its terminating NUL
-  fd_ = ::mkstemp(name.data());
-  if (fd_ < 0) {
-    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write: {}", path_, std::strerror(errno)));
-  }
-  temp_.assign(name.data());
-}
-
-AtomicFileSink::~AtomicFileSink() {
-  if (fd_ >= 0) {
-    ::close(fd_);
-    ::unlink(temp_.c_str());
-  }
-}
-
-void AtomicFileSink::fail(const char* step) {
-  const std::string reason = std::strerror(errno);
-  if (fd_ >= 0) ::close(fd_);
-  fd_ = -1;
-  ::unlink(temp_.c_str());
-  throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write ({}): {}", path_, step, reason));
-}
-
-void AtomicFileSink::write(std::string_view bytes) {
-  if (fd_ < 0) {
-    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write: the file is already closed", path_));
-  }
-  if (!write_all(fd_, bytes)) fail("write");
-}
-
-void AtomicFileSink::commit() {
-  if (fd_ < 0) {
-    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write: the file is already closed", path_));
-  }
-  if (::fchmod(fd_, 0644) != 0) fail("permissions");
-  if (::fsync(fd_) != 0) fail("sync");
-  const int fd = fd_;
-  fd_ = -1;
-  if (::close(fd) != 0) {
-    const std::string reason = std::strerror(errno);
-    ::unlink(temp_.c_str());
-    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write (close): {}", path_, reason));
-  }
-  if (std::rename(temp_.c_str(), path_.c_str()) != 0) {
-    const std::string reason = std::strerror(errno);
-    ::unlink(temp_.c_str());
-    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write (rename): {}", path_, reason));
   }
 }
 

@@ -1,10 +1,15 @@
 #include "worker_pool.hpp"
 
+#include <algorithm>
+
 namespace shaftwork::io {
 
-WorkerPool::WorkerPool(const BatchShared& shared, unsigned threads) {
-  for (unsigned i = 0; i < threads; ++i) {
-    threads_.emplace_back([this, &shared] { work(shared); });
+WorkerPool::WorkerPool(const BatchShared& shared, unsigned threads) : shared_(shared) {
+  try {
+    threads_.reserve(threads);
+    for (unsigned i = 0; i < threads; ++i) threads_.emplace_back([this] { work(); });
+  } catch (const std::exception&) {
+    // Run with the threads that started.
   }
 }
 
@@ -19,6 +24,12 @@ WorkerPool::~WorkerPool() {
 }
 
 void WorkerPool::submit(Job* job) {
+  if (threads_.empty()) {
+    if (!inline_rater_) inline_rater_ = std::make_unique<RowRater>(shared_);
+    run(*inline_rater_, *job);
+    job->done = true;
+    return;
+  }
   {
     const std::lock_guard lock(mutex_);
     queue_.push_back(job);
@@ -31,8 +42,23 @@ void WorkerPool::wait(Job* job) {
   job_done_.wait(lock, [job] { return job->done; });
 }
 
-void WorkerPool::work(const BatchShared& shared) {
-  RowRater rater(shared);
+void WorkerPool::run(RowRater& rater, Job& job) {
+  try {
+    rater.rate_chunk(job.chunk, job.out, job.rows, job.failed);
+  } catch (...) {
+    job.error = std::current_exception();
+  }
+}
+
+void WorkerPool::work() {
+  // A rater that cannot be made (memory) fails each job this thread takes.
+  std::unique_ptr<RowRater> rater;
+  std::exception_ptr broken;
+  try {
+    rater = std::make_unique<RowRater>(shared_);
+  } catch (...) {
+    broken = std::current_exception();
+  }
   for (;;) {
     Job* job = nullptr;
     {
@@ -42,10 +68,10 @@ void WorkerPool::work(const BatchShared& shared) {
       job = queue_.front();
       queue_.pop_front();
     }
-    try {
-      rater.rate_chunk(job->chunk, job->out, job->rows, job->failed);
-    } catch (...) {
-      job->error = std::current_exception();
+    if (rater) {
+      run(*rater, *job);
+    } else {
+      job->error = broken;
     }
     {
       const std::lock_guard lock(mutex_);

@@ -5,6 +5,7 @@
 #include <cstddef>
 #include <deque>
 #include <exception>
+#include <memory>
 #include <mutex>
 #include <thread>
 #include <vector>
@@ -24,6 +25,9 @@ struct Job {
 };
 
 // Worker threads taking jobs from a queue; the caller waits for each job in turn.
+// Starts as many of the threads asked for as the system allows (std::thread throws
+// std::system_error when it cannot start one: a thread limit, or too little address
+// space); with none started, the calling thread rates each job as it is submitted.
 class WorkerPool {
  public:
   WorkerPool(const BatchShared& shared, unsigned threads);
@@ -32,12 +36,18 @@ class WorkerPool {
   // Jobs not yet started are dropped (the batch is over or failed); running ones finish.
   ~WorkerPool();
 
+  // The threads that rate: those started, or the calling thread alone.
+  unsigned threads() const { return std::max(1u, static_cast<unsigned>(threads_.size())); }
+
   void submit(Job* job);
   void wait(Job* job);
 
  private:
-  void work(const BatchShared& shared);
+  static void run(RowRater& rater, Job& job);
+  void work();
 
+  const BatchShared& shared_;
+  std::unique_ptr<RowRater> inline_rater_;
   std::mutex mutex_;
   std::condition_variable work_ready_;
   std::condition_variable job_done_;

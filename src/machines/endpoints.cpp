@@ -42,6 +42,12 @@ ScanRoot search_pressure(const Problem& problem, Quantity q, double other,
   const bool unknown_is_higher = (q == Quantity::inlet_pressure) != problem.compression;
   const double low = unknown_is_higher ? other * (1 + 2e-7) : range.low;
   const double high = unknown_is_higher ? range.high : other * (1 - 2e-7);
+  if (!(low < high)) {
+    const Quantity known = q == Quantity::inlet_pressure ? Quantity::outlet_pressure : Quantity::inlet_pressure;
+    refuse(fmt::format("the {} {} leaves no room for the {} within the {} model's range ({} to {})", quantity_key(known),
+                       problem.show(known, other), quantity_key(q), problem.fluid.model_name(),
+                       problem.show(q, range.low), problem.show(q, range.high)));
+  }
   return scan_for_root(residual, low, high, std::string(quantity_key(q)),
                        fmt::format("no {} between {} and {} satisfies the other knowns", quantity_key(q),
                                    problem.show(q, low), problem.show(q, high)));

@@ -88,9 +88,12 @@ expect "duplicate key message" $?
 
 # A misspelt key is warned about, not silently ignored.
 sed 's/"mechanical_efficiency"/"mechanical_efficency"/' examples/plant-air-compressor.json >"$tmp/typo.json"
-"$bin" rate --format json "$tmp/typo.json" >"$tmp/typo.out"
+"$bin" rate --format json "$tmp/typo.json" >"$tmp/typo.out" 2>"$tmp/typo.err"
 grep -qF 'unknown key \"mechanical_efficency\" ignored' "$tmp/typo.out"
 expect "misspelt key warned" $?
+# Warnings go to standard error too (docs/contract.md), one line each, naming the case.
+grep -qxF 'warning: case "PAC-3 first stage, nameplate check 2026-11-20": unknown key "mechanical_efficency" ignored' "$tmp/typo.err"
+expect "the warning is on standard error, naming the case" $? "$(cat "$tmp/typo.err")"
 
 # US units in the table.
 "$bin" rate --units us examples/plant-air-compressor.json >"$tmp/us.txt"

@@ -50,6 +50,8 @@ class BatchProgress {
 struct BatchSummary {
   std::size_t rows = 0;    // data rows seen (not the header, not empty lines)
   std::size_t failed = 0;  // rows written as errors
+  unsigned threads = 1;    // threads that rated: fewer than BatchOptions::jobs when the
+                           // system would not start more (the batch still completes)
 };
 
 // The template of a batch: its one case, read.

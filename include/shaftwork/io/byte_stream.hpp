@@ -1,7 +1,8 @@
 // shaftwork/io/byte_stream.hpp — where a streaming command reads its bytes and writes them.
 //
 // Small interfaces so that the batch rater reads files, pipes and test strings alike
-// and writes to standard output or to a file that appears whole or not at all.
+// and writes to standard output or to a file that appears whole or not at all
+// (io::OutputFile, atomic_file.hpp).
 #pragma once
 
 #include <cstddef>
@@ -63,26 +64,7 @@ class FdSink final : public ByteSink {
   std::string name_;
 };
 
-// Writes a file whole or not at all: the bytes go to a temporary file beside `path`
-// as they come; commit() flushes it to disk and renames it over `path`. Destroyed
-// without commit() (an error, an exception), it removes the temporary file and
-// leaves `path` as it was. Throws bad_input naming `path` and the system's reason.
-class AtomicFileSink final : public ByteSink {
- public:
-  explicit AtomicFileSink(std::string path);
-  AtomicFileSink(const AtomicFileSink&) = delete;
-  AtomicFileSink& operator=(const AtomicFileSink&) = delete;
-  ~AtomicFileSink() override;
-
-  void write(std::string_view bytes) override;
-  void commit();
-
- private:
-  [[noreturn]] void fail(const char* step);
-
-  std::string path_;
-  std::string temp_;
-  int fd_ = -1;
-};
+// The sink that writes an output file whole or not at all is io::OutputFile
+// (atomic_file.hpp).
 
 }  // namespace shaftwork::io

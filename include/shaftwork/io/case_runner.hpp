@@ -11,13 +11,10 @@
 #include <nlohmann/json.hpp>
 
 #include "shaftwork/io/fluid_factory.hpp"
+#include "shaftwork/io/json_document.hpp"  // parse_json_strict, for the callers that rate what they parse
 #include "shaftwork/io/result_writer.hpp"
 
 namespace shaftwork::io {
-
-// Parses JSON text strictly: a duplicate key in any object is an error, since the
-// file would otherwise mean two things. Throws bad_input naming origin, line and column.
-nlohmann::json parse_json_strict(std::string_view text, const std::string& origin);
 
 // Rates one case object of the file `origin`; never throws for a problem of the case itself.
 CaseOutcome rate_case(const nlohmann::json& case_object, size_t index, FluidFactory& fluids,
