@@ -149,6 +149,16 @@ inline double ln_phi_phase(double Z, double A, double B, const CubicConstants& k
   return Z - 1 - std::log(Z - B) - A / B * log_term(Z, B, k);
 }
 
+// The root of lower Gibbs energy (the stable phase of the equation); *largest tells whether
+// it is the largest root (the vapour's).
+inline double stable_root(const CubicRoots& roots, double A, double B, const CubicConstants& k,
+                          bool* largest = nullptr) {
+  const double vapour = roots.z[roots.count - 1];
+  const bool liquid = roots.count == 3 && ln_phi_phase(roots.z[0], A, B, k) < ln_phi_phase(vapour, A, B, k);
+  if (largest) *largest = !liquid;
+  return liquid ? roots.z[0] : vapour;
+}
+
 // Residual properties at (T, p) on root Z (see the file comment), per mole.
 struct Residual {
   double v;      // m3/mol

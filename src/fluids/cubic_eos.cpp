@@ -82,6 +82,10 @@ double solve_temperature(const CubicGas::Impl& m, Residual residual, double star
   }
 }
 
+// The solve met its target, not the jump of h(T) or s(T) at a phase boundary: the miss,
+// as a temperature (residual over slope), is within 1e-7 relative.
+bool on_target(double temperature_miss, double T) { return std::fabs(temperature_miss) <= 1e-7 * T; }
+
 }  // namespace
 
 CubicGas::Impl::Impl(CubicKind kind_, IdealGasMixture mixture_)
@@ -97,11 +101,7 @@ CubicPoint CubicGas::Impl::point(double p, double T) const {
   const double B = b * p / RT;
   const detail::CubicRoots roots = detail::cubic_roots(A, B, k);
   pt.roots = roots.count;
-  pt.Z = roots.z[roots.count - 1];
-  if (roots.count == 3 && detail::ln_phi_phase(roots.z[0], A, B, k) < detail::ln_phi_phase(pt.Z, A, B, k)) {
-    pt.Z = roots.z[0];
-    pt.largest = false;
-  }
+  pt.Z = detail::stable_root(roots, A, B, k, &pt.largest);
   pt.r = detail::residual(pt.at, b, T, p, pt.Z, k);
   pt.ideal = d.at(T);
   return pt;
@@ -181,7 +181,7 @@ State CubicGas::from_pt(double p, double T) const {
   detail::check_finite(T, "temperature", m.label.c_str());
   detail::check_temperature(T, m.range, m.label.c_str());
   const CubicPoint pt = m.point(p, T);
-  m.check_phase(pt);
+  if (!m.one_phase(pt)) m.refuse_phase(pt);
   return m.state(pt);
 }
 
@@ -207,8 +207,11 @@ State CubicGas::from_ph(double p, double h) const {
   const auto start = m.mixture.temperature_from_enthalpy(h * M - m.point(p, guess).r.h);
   const double T = solve_temperature(m, residual, start.value_or(guess), m.d.solve_h_label, refuse);
   const CubicPoint pt = m.point(p, T);
-  m.check_phase(pt, "enthalpy", h, "J/kg");
-  return m.state(pt);
+  const State st = m.state(pt);
+  // A target between the two phases' values at the boundary (where h(T) jumps) or a state
+  // that splits is refused.
+  if (!on_target((st.enthalpy - h) / st.cp, T) || !m.one_phase(pt)) m.refuse_phase(pt, "enthalpy", h, "J/kg");
+  return st;
 }
 
 State CubicGas::from_ps(double p, double s) const {
@@ -233,8 +236,9 @@ State CubicGas::from_ps(double p, double s) const {
   const auto start = m.mixture.temperature_from_entropy(s * M + log_p - m.point(p, guess).r.s);
   const double T = solve_temperature(m, residual, start.value_or(guess), m.d.solve_s_label, refuse);
   const CubicPoint pt = m.point(p, T);
-  m.check_phase(pt, "entropy", s, "J/(kg K)");
-  return m.state(pt);
+  const State st = m.state(pt);
+  if (!on_target((st.entropy - s) * T / st.cp, T) || !m.one_phase(pt)) m.refuse_phase(pt, "entropy", s, "J/(kg K)");
+  return st;
 }
 
 std::string CubicGas::model_name() const { return cubic_model_name(impl_->kind); }

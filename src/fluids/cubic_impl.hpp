@@ -65,9 +65,12 @@ struct CubicGas::Impl {
   std::optional<double> saturation_temperature(double p) const;
   std::optional<double> mixture_dew_temperature(double p, double from) const;
   void build_screen();
-  // Throws out_of_range naming the phase boundary when (p, T) is not a one-phase gas
-  // state of the model; `given` names the quantity T was solved from, if any ("enthalpy").
-  void check_phase(const CubicPoint& pt, const char* given = nullptr, double value = 0, const char* unit = "") const;
+  // True when (p, T) is a one-phase gas (or supercritical) state of the model.
+  bool one_phase(const CubicPoint& pt) const;
+  // Throws out_of_range naming the phase boundary; `given` names the quantity T was solved
+  // from, if any ("enthalpy"), with its value and unit.
+  [[noreturn]] void refuse_phase(const CubicPoint& pt, const char* given = nullptr, double value = 0,
+                                 const char* unit = "") const;
 };
 
 }  // namespace shaftwork::fluids

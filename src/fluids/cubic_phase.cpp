@@ -72,10 +72,7 @@ std::vector<double> CubicGas::Impl::ln_phi(double p, double T, const std::vector
   const double A = a * p / (RT * RT);
   const double B = bx * p / RT;
   const detail::CubicRoots roots = detail::cubic_roots(A, B, k);
-  double z = roots.z[roots.count - 1];
-  if (roots.count == 3 && detail::ln_phi_phase(roots.z[0], A, B, k) < detail::ln_phi_phase(z, A, B, k)) {
-    z = roots.z[0];
-  }
+  const double z = detail::stable_root(roots, A, B, k);
   const double F = detail::log_term(z, B, k);
   const double log_zb = std::log(z - B);
   std::vector<double> out(n);
@@ -205,31 +202,13 @@ void CubicGas::Impl::build_screen() {
   }
 }
 
-void CubicGas::Impl::check_phase(const CubicPoint& pt, const char* given, double value, const char* unit) const {
-  const auto where = [&] {
-    return given == nullptr
-               ? fmt::format("{} at {}, {:.6g} K", phase_label, bar(pt.p), pt.T)
-               : fmt::format("{}: {} {:.6g} {} at {} gives {:.6g} K, which", phase_label, given, value, unit,
-                             bar(pt.p), pt.T);
-  };
+bool CubicGas::Impl::one_phase(const CubicPoint& pt) const {
   if (pure()) {
     const CriticalConstants& c = critical[0];
-    if (pt.T >= c.critical_temperature) return;
-    if (pt.roots == 3 && pt.largest) return;
-    if (pt.roots == 1) {
-      const auto ps = saturation_pressure(pt.T);
-      if (ps ? pt.p < *ps : pt.Z > k.z_critical) return;
-    }
-    if (!(pt.p < c.critical_pressure)) {
-      throw Error(ErrorKind::out_of_range,
-                  fmt::format("{} is a liquid (above the critical pressure {} and below the critical temperature "
-                              "{:.6g} K): the model describes the gas only",
-                              where(), bar(c.critical_pressure), c.critical_temperature));
-    }
-    const auto dew = saturation_temperature(pt.p);
-    throw Error(ErrorKind::out_of_range,
-                fmt::format("{} lies below its dew point ({}): it would condense; the model describes the gas only",
-                            where(), dew ? fmt::format("about {:.1f} K at {}", *dew, bar(pt.p)) : "not found"));
+    if (pt.T >= c.critical_temperature) return true;
+    if (pt.roots == 3) return pt.largest;
+    const auto ps = saturation_pressure(pt.T);
+    return ps ? pt.p < *ps : pt.Z > k.z_critical;
   }
   if (!screen_lnp.empty()) {
     const double ln_p = std::log(pt.p);
@@ -240,15 +219,34 @@ void CubicGas::Impl::check_phase(const CubicPoint& pt, const char* given, double
       for (std::size_t j = i > 1 ? i - 2 : 0; j <= std::min(i + 1, screen_t.size() - 1); ++j) {
         bound = std::max(bound, screen_t[j]);
       }
-      if (pt.T > bound * 1.02 + 2) return;
+      if (pt.T > bound * 1.02 + 2) return true;
     }
   }
-  if (stable(pt.p, pt.T)) return;
-  const auto dew = mixture_dew_temperature(pt.p, pt.T);
+  return stable(pt.p, pt.T);
+}
+
+void CubicGas::Impl::refuse_phase(const CubicPoint& pt, const char* given, double value, const char* unit) const {
+  const std::string where = given == nullptr
+                                ? fmt::format("{} at {}, {:.6g} K", phase_label, bar(pt.p), pt.T)
+                                : fmt::format("{}: {} {:.6g} {} at {}", phase_label, given, value, unit, bar(pt.p));
+  if (pure()) {
+    const CriticalConstants& c = critical[0];
+    if (!(pt.p < c.critical_pressure)) {
+      throw Error(ErrorKind::out_of_range,
+                  fmt::format("{} is a liquid (above the critical pressure {} and below the critical temperature "
+                              "{:.6g} K): the model describes the gas only",
+                              where, bar(c.critical_pressure), c.critical_temperature));
+    }
+    const auto dew = saturation_temperature(pt.p);
+    throw Error(ErrorKind::out_of_range,
+                fmt::format("{} lies below its dew point ({}): it would condense; the model describes the gas only",
+                            where, dew ? fmt::format("about {:.1f} K at {}", *dew, bar(pt.p)) : "not found"));
+  }
+  const auto dew = stable(pt.p, pt.T) ? std::optional<double>(pt.T) : mixture_dew_temperature(pt.p, pt.T);
   throw Error(ErrorKind::out_of_range,
               fmt::format("{} lies inside its two-phase region (below its dew point, {}): part of it would "
                           "condense; the model describes one gas phase only",
-                          where(), dew ? fmt::format("about {:.1f} K at {}", *dew, bar(pt.p)) : "not found"));
+                          where, dew ? fmt::format("about {:.1f} K at {}", *dew, bar(pt.p)) : "not found"));
 }
 
 std::vector<double> CubicGas::ln_fugacity_coefficients(double p, double T, const std::vector<double>& x) const {
