@@ -69,7 +69,7 @@ double solve_temperature(const CubicGas::Impl& m, Residual residual, double star
     const numerics::ValueAndSlope here = residual(T);
     const double next = T - here.value / here.slope;
     if (!(next >= m.range.low && next <= m.range.high)) break;  // also NaN
-    if (std::fabs(next - T) <= kTolerance * next) return next;
+    if (std::fabs(next - T) <= kTolerance * next) return T;     // T is within the tolerance already
     T = next;
   }
   try {
@@ -85,6 +85,49 @@ double solve_temperature(const CubicGas::Impl& m, Residual residual, double star
 // The solve met its target, not the jump of h(T) or s(T) at a phase boundary: the miss,
 // as a temperature (residual over slope), is within 1e-7 relative.
 bool on_target(double temperature_miss, double T) { return std::fabs(temperature_miss) <= 1e-7 * T; }
+
+// The state at p whose enthalpy (by_entropy false) or entropy (true) is `target` [J/kg or
+// J/(kg K)], as the file comment describes; refused when it is not a one-phase state.
+State inverse(const CubicGas::Impl& m, double p, double target, bool by_entropy) {
+  const double M = m.d.molar_mass;
+  const char* name = by_entropy ? "entropy" : "enthalpy";
+  const char* unit = by_entropy ? "J/(kg K)" : "J/kg";
+  struct Evaluated {
+    double T = -1;
+    CubicPoint pt;
+    State st;
+  } last;
+  const auto residual = [&](double T) {
+    last.T = T;
+    last.pt = m.point(p, T);
+    last.st = m.state(last.pt);
+    const State& st = last.st;
+    return by_entropy ? numerics::ValueAndSlope{(st.entropy - target) * M, st.cp * M / T}
+                      : numerics::ValueAndSlope{(st.enthalpy - target) * M, st.cp * M};
+  };
+  const auto refuse = [&](bool below) {
+    throw Error(ErrorKind::out_of_range,
+                fmt::format("{}: {} {:.6g} {} at {:.6g} Pa needs a temperature {} the model's range {:g} to {:g} K",
+                            m.label, name, target, unit, p, below ? "below" : "above", m.range.low, m.range.high));
+  };
+  // Start: the ideal-gas temperature of the target less the departure there.
+  const double ideal = target * M + (by_entropy ? kR * std::log(p / IdealGasMixture::kStandardPressure) : 0.0);
+  const auto ideal_temperature = [&](double x) {
+    return by_entropy ? m.mixture.temperature_from_entropy(x) : m.mixture.temperature_from_enthalpy(x);
+  };
+  const double guess =
+      std::clamp(ideal_temperature(ideal).value_or(0.5 * (m.range.low + m.range.high)), m.range.low, m.range.high);
+  const detail::Residual departure = m.point(p, guess).r;
+  const double start = ideal_temperature(ideal - (by_entropy ? departure.s : departure.h)).value_or(guess);
+  const double T = solve_temperature(m, residual, start, by_entropy ? m.d.solve_s_label : m.d.solve_h_label, refuse);
+  if (last.T != T) residual(T);
+  const double miss = by_entropy ? (last.st.entropy - target) * T / last.st.cp : (last.st.enthalpy - target) / last.st.cp;
+  // A target between the two phases' values at the boundary (where h(T) or s(T) jumps), or a
+  // state that splits, is refused.
+  if (!on_target(miss, T) || !m.one_phase(last.pt)) m.refuse_phase(last.pt, name, target, unit);
+  return last.st;
+}
+
 
 }  // namespace
 
@@ -186,59 +229,15 @@ State CubicGas::from_pt(double p, double T) const {
 }
 
 State CubicGas::from_ph(double p, double h) const {
-  const Impl& m = *impl_;
-  detail::check_pressure(p, m.label.c_str());
-  detail::check_finite(h, "enthalpy", m.label.c_str());
-  const double M = m.d.molar_mass;
-  const auto residual = [&](double T) {
-    const CubicPoint pt = m.point(p, T);
-    const State st = m.state(pt);
-    return numerics::ValueAndSlope{(st.enthalpy - h) * M, st.cp * M};
-  };
-  const auto refuse = [&](bool below) {
-    throw Error(ErrorKind::out_of_range,
-                fmt::format("{}: enthalpy {:.6g} J/kg at {:.6g} Pa needs a temperature {} the model's range {:g} "
-                            "to {:g} K",
-                            m.label, h, p, below ? "below" : "above", m.range.low, m.range.high));
-  };
-  // Start: the ideal-gas temperature of h less the departure there.
-  double guess = m.mixture.temperature_from_enthalpy(h * M).value_or(0.5 * (m.range.low + m.range.high));
-  guess = std::clamp(guess, m.range.low, m.range.high);
-  const auto start = m.mixture.temperature_from_enthalpy(h * M - m.point(p, guess).r.h);
-  const double T = solve_temperature(m, residual, start.value_or(guess), m.d.solve_h_label, refuse);
-  const CubicPoint pt = m.point(p, T);
-  const State st = m.state(pt);
-  // A target between the two phases' values at the boundary (where h(T) jumps) or a state
-  // that splits is refused.
-  if (!on_target((st.enthalpy - h) / st.cp, T) || !m.one_phase(pt)) m.refuse_phase(pt, "enthalpy", h, "J/kg");
-  return st;
+  detail::check_pressure(p, impl_->label.c_str());
+  detail::check_finite(h, "enthalpy", impl_->label.c_str());
+  return inverse(*impl_, p, h, false);
 }
 
 State CubicGas::from_ps(double p, double s) const {
-  const Impl& m = *impl_;
-  detail::check_pressure(p, m.label.c_str());
-  detail::check_finite(s, "entropy", m.label.c_str());
-  const double M = m.d.molar_mass;
-  const auto residual = [&](double T) {
-    const CubicPoint pt = m.point(p, T);
-    const State st = m.state(pt);
-    return numerics::ValueAndSlope{(st.entropy - s) * M, st.cp * M / T};
-  };
-  const auto refuse = [&](bool below) {
-    throw Error(ErrorKind::out_of_range,
-                fmt::format("{}: entropy {:.6g} J/(kg K) at {:.6g} Pa needs a temperature {} the model's range "
-                            "{:g} to {:g} K",
-                            m.label, s, p, below ? "below" : "above", m.range.low, m.range.high));
-  };
-  const double log_p = kR * std::log(p / IdealGasMixture::kStandardPressure);
-  double guess = m.mixture.temperature_from_entropy(s * M + log_p).value_or(0.5 * (m.range.low + m.range.high));
-  guess = std::clamp(guess, m.range.low, m.range.high);
-  const auto start = m.mixture.temperature_from_entropy(s * M + log_p - m.point(p, guess).r.s);
-  const double T = solve_temperature(m, residual, start.value_or(guess), m.d.solve_s_label, refuse);
-  const CubicPoint pt = m.point(p, T);
-  const State st = m.state(pt);
-  if (!on_target((st.entropy - s) * T / st.cp, T) || !m.one_phase(pt)) m.refuse_phase(pt, "entropy", s, "J/(kg K)");
-  return st;
+  detail::check_pressure(p, impl_->label.c_str());
+  detail::check_finite(s, "entropy", impl_->label.c_str());
+  return inverse(*impl_, p, s, true);
 }
 
 std::string CubicGas::model_name() const { return cubic_model_name(impl_->kind); }

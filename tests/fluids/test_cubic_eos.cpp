@@ -330,6 +330,15 @@ TEST_CASE("the compressibility estimate is Peng-Robinson on the built-in data") 
   CHECK(*estimate_compressibility({{"N2", 0.78084}, {"O2", 0.209476}, {"Ar", 0.009365}, {"CO2", 0.000319}}, 10e5,
                                   300) == Approx(1).margin(0.01));  // air at 10 bar: no warning
   CHECK_FALSE(estimate_compressibility({{"Unobtainium", 1.0}}, 1e5, 300).has_value());
+  CHECK_FALSE(CompressibilityEstimator::for_mixture({{"CH4", 0.5}, {"Unobtainium", 0.5}}).has_value());
+  // Prepared once: the same Z at every state, and fractions that do not sum to 1 are scaled.
+  const auto estimator = CompressibilityEstimator::for_mixture(kNaturalGas);
+  REQUIRE(estimator.has_value());
+  for (const auto& [p, T] : {std::pair{20e5, 290.0}, std::pair{100e5, 400.0}}) {
+    CHECK(estimator->z(p, T) == Approx(natural_gas().from_pt(p, T).compressibility).epsilon(1e-12));
+  }
+  CHECK(CompressibilityEstimator::for_mixture({{"CH4", 2.0}})->z(50e5, 300) ==
+        Approx(pure(PR, "CH4").from_pt(50e5, 300).compressibility).epsilon(1e-12));
   CHECK_FALSE(estimate_compressibility({{"CH4", 1.0}}, -1, 300).has_value());
 }
 

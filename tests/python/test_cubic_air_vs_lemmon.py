@@ -11,11 +11,11 @@ N2/O2/Ar/CO2, built-in critical constants and k_ij) are compared on a grid of 25
     the known deviation, common practice to expect it; measured here: PR up to 2.6 %,
     SRK up to 3.0 %, both at 250 K and 200 bar);
   - the isothermal enthalpy departure h(p, T) - h(1 bar, T), within 22 % of its value plus
-    1 kJ/kg up to 400 K (measured: PR overstates it by up to 20 %, SRK understates it by up
-    to 21 % at 400 K), and within 5 kJ/kg at 600 K, where the departure is small and Soave's
+    1 kJ/kg up to 400 K (measured: PR overstates it by up to 25 %, where it is small; SRK
+    misses by up to 21 %), and within 5 kJ/kg at 600 K, where the departure is small and Soave's
     alpha, fitted to vapour pressures, extrapolates poorly (SRK 5.3 against 0.9 kJ/kg at
     200 bar). docs/properties.md states these deviations;
-  - cp, within 3 %.
+  - cp, within 2 % (measured: within 1.2 %).
 It also runs the cubic fluid forms of a case file through the command line: a species,
 a named gas, critical-constant and k_ij overrides, and the messages for bad forms.
 
@@ -88,7 +88,7 @@ for model in ("peng-robinson", "soave-redlich-kwong"):
             dh_ref = ref.h - ref_low.h
             allowed = 0.22 * abs(dh_ref) + 1.0 if T <= 400 else 5.0
             check(label + " h departure", abs(dh_ours - dh_ref) < allowed, f"{dh_ours:.3f} vs {dh_ref:.3f} kJ/kg")
-            check(label + " cp", abs(ours["cp"] / 1e3 / ref.cp - 1) < 0.03, f"{ours['cp']/1e3:.4f} vs {ref.cp:.4f}")
+            check(label + " cp", abs(ours["cp"] / 1e3 / ref.cp - 1) < 0.02, f"{ours['cp']/1e3:.4f} vs {ref.cp:.4f}")
 
 # The case-file forms.
 base = {"id": "c", "machine": "compressor", "inlet": {"pressure": "41 bar", "temperature": "30 degC"},
