@@ -121,7 +121,8 @@ State inverse(const CubicGas::Impl& m, double p, double target, bool by_entropy)
   const double start = ideal_temperature(ideal - (by_entropy ? departure.s : departure.h)).value_or(guess);
   const double T = solve_temperature(m, residual, start, by_entropy ? m.d.solve_s_label : m.d.solve_h_label, refuse);
   if (last.T != T) residual(T);
-  const double miss = by_entropy ? (last.st.entropy - target) * T / last.st.cp : (last.st.enthalpy - target) / last.st.cp;
+  const State& st = last.st;
+  const double miss = by_entropy ? (st.entropy - target) * T / st.cp : (st.enthalpy - target) / st.cp;
   // A target between the two phases' values at the boundary (where h(T) or s(T) jumps), or a
   // state that splits, is refused.
   if (!on_target(miss, T) || !m.one_phase(last.pt)) m.refuse_phase(last.pt, name, target, unit);

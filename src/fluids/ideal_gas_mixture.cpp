@@ -182,7 +182,8 @@ void check_grid_point(const IdealGasMixtureData& d, double t, const MixtureValue
   const double R = d.gas_constant;
   if (!std::isfinite(R * v.cp_r) || !std::isfinite(R * v.h_r) || !std::isfinite(R * v.s_r)) {
     throw Error(ErrorKind::bad_input,
-                fmt::format("{}: cp°, H° or S° is not a finite number at {:g} K; check the species data", d.label, t));
+                fmt::format("{}: cp°, H° or S° is not a finite number at {:g} K; check the species data", d.label,
+                            t));
   }
   if (!(v.cp_r > 1.0)) {
     throw Error(ErrorKind::bad_input,
@@ -229,6 +230,17 @@ void build_grid(IdealGasMixtureData& d) {
   }
 }
 
+// The temperature of H° (by_entropy false) or S° (true) per mole, or empty outside the range.
+std::optional<double> temperature_for(const IdealGasMixtureData& d, double target, bool by_entropy) {
+  if (!std::isfinite(target)) return std::nullopt;
+  bool outside = false;
+  const double T = d.temperature_for(target / units::kGasConstant, by_entropy, 0.0, [&](bool) {
+    outside = true;
+    return 0.0;
+  });
+  return outside ? std::nullopt : std::optional<double>(T);
+}
+
 }  // namespace
 
 IdealGasMixture::IdealGasMixture(const std::vector<Component>& components, CompositionBasis basis,
@@ -258,23 +270,11 @@ IdealGasProperties IdealGasMixture::mass(double T) const {
 }
 
 std::optional<double> IdealGasMixture::temperature_from_enthalpy(double h) const {
-  if (!std::isfinite(h)) return std::nullopt;
-  bool outside = false;
-  const double T = data_->temperature_for(h / units::kGasConstant, false, 0.0, [&](bool) {
-    outside = true;
-    return 0.0;
-  });
-  return outside ? std::nullopt : std::optional<double>(T);
+  return temperature_for(*data_, h, false);
 }
 
 std::optional<double> IdealGasMixture::temperature_from_entropy(double s) const {
-  if (!std::isfinite(s)) return std::nullopt;
-  bool outside = false;
-  const double T = data_->temperature_for(s / units::kGasConstant, true, 0.0, [&](bool) {
-    outside = true;
-    return 0.0;
-  });
-  return outside ? std::nullopt : std::optional<double>(T);
+  return temperature_for(*data_, s, true);
 }
 
 double IdealGasMixture::molar_mass() const { return data_->molar_mass; }

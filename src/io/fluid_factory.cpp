@@ -106,7 +106,7 @@ struct Composition {
 };
 
 Composition read_composition(const json& j, const std::string& path, const fluids::SpeciesLibrary& library,
-                             const std::string& model) {
+                             const std::string& model, const char* forms = "\"species\" or \"mixture\"") {
   auto species_named = [&](const std::string& name, const std::string& where) {
     const fluids::NasaSpecies* sp = library.find(name);
     if (!sp) {
@@ -118,7 +118,7 @@ Composition read_composition(const json& j, const std::string& path, const fluid
   };
   Composition c;
   if (j.contains("species") == j.contains("mixture")) {
-    refuse(fmt::format("{}: a {} fluid needs \"species\" or \"mixture\", one of them", path, model));
+    refuse(fmt::format("{}: a {} fluid needs {}, one of them", path, model, forms));
   }
   if (j.contains("species")) {
     if (!j["species"].is_string()) refuse(fmt::format("{}.species: expected a species name", path));
@@ -126,7 +126,9 @@ Composition read_composition(const json& j, const std::string& path, const fluid
     return c;
   }
   const json& mix = j["mixture"];
-  if (!mix.is_object() || mix.empty()) refuse(fmt::format("{}.mixture: expected an object of species and fractions", path));
+  if (!mix.is_object() || mix.empty()) {
+    refuse(fmt::format("{}.mixture: expected an object of species and fractions", path));
+  }
   for (const auto& [name, value] : mix.items()) {
     units::ParseNotes notes;
     const double x = read_quantity(value, units::Dimension::fraction, path + ".mixture." + name, {}, notes).si;
@@ -199,7 +201,9 @@ fluids::CubicOverrides read_cubic_overrides(const json& j, const std::string& pa
       const std::string where = path + ".critical." + name;
       const fluids::NasaSpecies* sp = library.find(name);
       if (!sp) refuse(fmt::format("{}: unknown species \"{}\"", where, name));
-      if (!value.is_object()) refuse(fmt::format("{}: expected critical_temperature, critical_pressure, acentric_factor", where));
+      if (!value.is_object()) {
+        refuse(fmt::format("{}: expected critical_temperature, critical_pressure, acentric_factor", where));
+      }
       detail::warn_unknown_keys(value, {"critical_temperature", "critical_pressure", "acentric_factor"}, where + ".",
                                 warnings);
       const fluids::CriticalConstants* built = fluids::CriticalData::built_in().find(sp->name);
@@ -212,8 +216,12 @@ fluids::CubicOverrides read_cubic_overrides(const json& j, const std::string& pa
                            "critical_pressure and acentric_factor",
                            where, sp->name));
       }
-      if (value.contains("critical_temperature")) c.critical_temperature = read_number(value, "critical_temperature", units::Dimension::temperature, where);
-      if (value.contains("critical_pressure")) c.critical_pressure = read_number(value, "critical_pressure", units::Dimension::pressure, where);
+      if (value.contains("critical_temperature")) {
+        c.critical_temperature = read_number(value, "critical_temperature", units::Dimension::temperature, where);
+      }
+      if (value.contains("critical_pressure")) {
+        c.critical_pressure = read_number(value, "critical_pressure", units::Dimension::pressure, where);
+      }
       if (value.contains("acentric_factor")) {
         if (!value["acentric_factor"].is_number()) refuse(fmt::format("{}.acentric_factor: expected a number", where));
         c.acentric_factor = value["acentric_factor"].get<double>();
@@ -244,7 +252,8 @@ fluids::CubicOverrides read_cubic_overrides(const json& j, const std::string& pa
       if (!value.is_number()) refuse(fmt::format("{}: expected k_ij as a number", where));
       const double k = value.get<double>();
       if (!(std::fabs(k) < 1) || splits[0].first == splits[0].second) {
-        refuse(fmt::format("{}: k_ij must lie between -1 and 1 for two different species, got {}", where, value.dump()));
+        refuse(fmt::format("{}: k_ij must lie between -1 and 1 for two different species, got {}", where,
+                           value.dump()));
       }
       o.interaction.push_back({splits[0].first, splits[0].second, k, true, true, "given in the case"});
     }
@@ -265,7 +274,7 @@ std::shared_ptr<const fluids::FluidModel> make_cubic(const json& fluid, const st
     }
     j.update(named_composition(fluid, path));
   }
-  const Composition c = read_composition(j, path, library, model);
+  const Composition c = read_composition(j, path, library, model, "\"species\", \"mixture\" or \"fluid\"");
   const fluids::CubicOverrides overrides = read_cubic_overrides(fluid, path, library, warnings);
   try {
     auto gas = std::make_shared<fluids::CubicGas>(kind, c.components, c.basis, overrides);
@@ -345,7 +354,8 @@ std::shared_ptr<const fluids::FluidModel> FluidFactory::build(const json& fluid,
     return make_nasa(fluid, path, *species_, warnings);
   }
   if (model == "peng-robinson" || model == "soave-redlich-kwong") {
-    const auto kind = model == "peng-robinson" ? fluids::CubicKind::peng_robinson : fluids::CubicKind::soave_redlich_kwong;
+    const auto kind =
+        model == "peng-robinson" ? fluids::CubicKind::peng_robinson : fluids::CubicKind::soave_redlich_kwong;
     return make_cubic(fluid, path, kind, *species_, warnings);
   }
   if (model == "iapws-if97") {
