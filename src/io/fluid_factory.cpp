@@ -1,5 +1,6 @@
 #include "shaftwork/io/fluid_factory.hpp"
 
+#include <cmath>
 #include <sstream>
 #include <string_view>
 
@@ -9,6 +10,8 @@
 #include "json_keys.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/fluids/constant_cp.hpp"
+#include "shaftwork/fluids/critical_data.hpp"
+#include "shaftwork/fluids/cubic_eos.hpp"
 #include "shaftwork/fluids/iapws_if97.hpp"
 #include "shaftwork/fluids/incompressible.hpp"
 #include "shaftwork/io/json_quantity.hpp"
@@ -96,14 +99,24 @@ std::shared_ptr<const fluids::FluidModel> make_constant_cp(const json& j, const 
   }
 }
 
+// The composition of a gas on NASA species: "species", or "mixture" with "basis".
+struct Composition {
+  std::vector<fluids::Component> components;
+  fluids::CompositionBasis basis = fluids::CompositionBasis::mole;
+};
+
 // The basis of a mixture's numbers: "mole" or "mass" (fractions), "mole %" or "mass %"
 // (a gas analysis). Returns true for percent.
 bool read_basis(const json& j, const std::string& path, fluids::CompositionBasis& basis) {
   if (!j.contains("basis")) return false;
   const json& b = j["basis"];
-  if (b == "mole" || b == "mole %") basis = fluids::CompositionBasis::mole;
-  else if (b == "mass" || b == "mass %") basis = fluids::CompositionBasis::mass;
-  else refuse(fmt::format("{}.basis: expected \"mole\", \"mass\", \"mole %\" or \"mass %\", got {}", path, b.dump()));
+  if (b == "mole" || b == "mole %") {
+    basis = fluids::CompositionBasis::mole;
+  } else if (b == "mass" || b == "mass %") {
+    basis = fluids::CompositionBasis::mass;
+  } else {
+    refuse(fmt::format("{}.basis: expected \"mole\", \"mass\", \"mole %\" or \"mass %\", got {}", path, b.dump()));
+  }
   return b == "mole %" || b == "mass %";
 }
 
@@ -128,9 +141,9 @@ void normalise(std::vector<fluids::Component>& components, bool percent, const s
   for (auto& c : components) c.fraction /= sum;
 }
 
-std::shared_ptr<const fluids::FluidModel> make_nasa(const json& j, const std::string& path,
-                                                    const fluids::SpeciesLibrary& library,
-                                                    std::vector<std::string>& warnings) {
+Composition read_composition(const json& j, const std::string& path, const fluids::SpeciesLibrary& library,
+                             const std::string& model, std::vector<std::string>& warnings,
+                             const char* forms = "\"species\" or \"mixture\"") {
   auto species_named = [&](const std::string& name, const std::string& where) {
     const fluids::NasaSpecies* sp = library.find(name);
     if (!sp) {
@@ -140,34 +153,160 @@ std::shared_ptr<const fluids::FluidModel> make_nasa(const json& j, const std::st
     }
     return sp;
   };
-  std::vector<fluids::Component> components;
-  fluids::CompositionBasis basis = fluids::CompositionBasis::mole;
-  bool percent = false;
+  Composition c;
   if (j.contains("species") == j.contains("mixture")) {
-    refuse(fmt::format("{}: a nasa-polynomial fluid needs \"species\" or \"mixture\", one of them", path));
+    refuse(fmt::format("{}: a {} fluid needs {}, one of them", path, model, forms));
   }
   if (j.contains("species")) {
     if (!j["species"].is_string()) refuse(fmt::format("{}.species: expected a species name", path));
-    components.push_back({species_named(j["species"].get<std::string>(), path + ".species"), 1.0});
-  } else {
-    const json& mix = j["mixture"];
-    if (!mix.is_object() || mix.empty()) {
-      refuse(fmt::format("{}.mixture: expected an object of species and fractions", path));
-    }
-    for (const auto& [name, value] : mix.items()) {
-      units::ParseNotes notes;
-      const double x = read_quantity(value, units::Dimension::fraction, path + ".mixture." + name, {}, notes).si;
-      components.push_back({species_named(name, path + ".mixture"), x});
-    }
-    percent = read_basis(j, path, basis);
-    normalise(components, percent, path, warnings);
+    c.components.push_back({species_named(j["species"].get<std::string>(), path + ".species"), 1.0});
+    return c;
   }
+  const json& mix = j["mixture"];
+  if (!mix.is_object() || mix.empty()) {
+    refuse(fmt::format("{}.mixture: expected an object of species and fractions", path));
+  }
+  for (const auto& [name, value] : mix.items()) {
+    units::ParseNotes notes;
+    const double x = read_quantity(value, units::Dimension::fraction, path + ".mixture." + name, {}, notes).si;
+    c.components.push_back({species_named(name, path + ".mixture"), x});
+  }
+  normalise(c.components, read_basis(j, path, c.basis), path, warnings);
+  return c;
+}
+
+void warn_if_renormalised(bool renormalised, double given_sum, const std::string& path,
+                          std::vector<std::string>& warnings) {
+  if (renormalised) {
+    warnings.push_back(fmt::format("{}.mixture: the fractions add up to {:.6g}; scaled to sum to 1", path, given_sum));
+  }
+}
+
+std::shared_ptr<const fluids::FluidModel> make_nasa(const json& j, const std::string& path,
+                                                    const fluids::SpeciesLibrary& library,
+                                                    std::vector<std::string>& warnings) {
+  const Composition c = read_composition(j, path, library, "nasa-polynomial", warnings);
   try {
-    auto gas = std::make_shared<fluids::NasaPolynomialGas>(components, basis);
-    if (gas->renormalised()) {
-      warnings.push_back(fmt::format("{}.mixture: the fractions add up to {:.6g}; scaled to sum to 1", path,
-                                     gas->given_sum()));
+    auto gas = std::make_shared<fluids::NasaPolynomialGas>(c.components, c.basis);
+    warn_if_renormalised(gas->renormalised(), gas->given_sum(), path, warnings);
+    return gas;
+  } catch (const Error& e) {
+    throw e.with_context(path);
+  }
+}
+
+// --- Cubic equations of state: { "model": "peng-robinson" | "soave-redlich-kwong", "species" |
+// "mixture" + "basis" | "fluid": a named NASA gas, "critical": {...}, "interaction": {...} }.
+// One function, so that it can move into a table of models as it is.
+
+// A named fluid's composition keys, for {"fluid": "natural-gas-example"}.
+json named_composition(const json& j, const std::string& path) {
+  if (!j["fluid"].is_string()) refuse(fmt::format("{}.fluid: expected the name of a gas in data/fluids.txt", path));
+  const std::string name = j["fluid"].get<std::string>();
+  for (const NamedFluid& named : named_fluids()) {
+    if (named.name != name) continue;
+    const json& d = named.definition;
+    if (d.value("model", "") != "nasa-polynomial") {
+      refuse(fmt::format("{}.fluid: \"{}\" is not a gas of NASA species (its model is {})", path, name,
+                         d.value("model", "?")));
     }
+    json out = json::object();
+    for (const char* key : {"species", "mixture", "basis"}) {
+      if (d.contains(key)) out[key] = d[key];
+    }
+    return out;
+  }
+  refuse(fmt::format("{}.fluid: unknown fluid \"{}\" (shaftwork fluids lists the named fluids)", path, name));
+}
+
+fluids::CubicOverrides read_cubic_overrides(const json& j, const std::string& path,
+                                            const fluids::SpeciesLibrary& library, std::vector<std::string>& warnings) {
+  fluids::CubicOverrides o;
+  if (j.contains("critical")) {
+    const json& crit = j["critical"];
+    if (!crit.is_object()) refuse(fmt::format("{}.critical: expected an object of species", path));
+    for (const auto& [name, value] : crit.items()) {
+      const std::string where = path + ".critical." + name;
+      const fluids::NasaSpecies* sp = library.find(name);
+      if (!sp) refuse(fmt::format("{}: unknown species \"{}\"", where, name));
+      if (!value.is_object()) {
+        refuse(fmt::format("{}: expected critical_temperature, critical_pressure, acentric_factor", where));
+      }
+      detail::warn_unknown_keys(value, {"critical_temperature", "critical_pressure", "acentric_factor"}, where + ".",
+                                warnings);
+      const fluids::CriticalConstants* built = fluids::CriticalData::built_in().find(sp->name);
+      fluids::CriticalConstants c = built ? *built : fluids::CriticalConstants{};
+      c.source = "given in the case";
+      const bool all = value.contains("critical_temperature") && value.contains("critical_pressure") &&
+                       value.contains("acentric_factor");
+      if (!built && !all) {
+        refuse(fmt::format("{}: {} has no built-in critical constants; give all three of critical_temperature, "
+                           "critical_pressure and acentric_factor",
+                           where, sp->name));
+      }
+      if (value.contains("critical_temperature")) {
+        c.critical_temperature = read_number(value, "critical_temperature", units::Dimension::temperature, where);
+      }
+      if (value.contains("critical_pressure")) {
+        c.critical_pressure = read_number(value, "critical_pressure", units::Dimension::pressure, where);
+      }
+      if (value.contains("acentric_factor")) {
+        if (!value["acentric_factor"].is_number()) refuse(fmt::format("{}.acentric_factor: expected a number", where));
+        c.acentric_factor = value["acentric_factor"].get<double>();
+      }
+      try {
+        fluids::check_critical_constants(c, where);
+      } catch (const Error& e) {
+        refuse(e.what());
+      }
+      o.critical.emplace_back(sp->name, c);
+    }
+  }
+  if (j.contains("interaction")) {
+    const json& inter = j["interaction"];
+    if (!inter.is_object()) refuse(fmt::format("{}.interaction: expected an object like {{\"CH4-CO2\": 0.1}}", path));
+    for (const auto& [pair, value] : inter.items()) {
+      const std::string where = path + ".interaction." + pair;
+      // Species names may hold '-' themselves (n-C4H10): take the one split into two known species.
+      std::vector<std::pair<std::string, std::string>> splits;
+      for (std::size_t dash = pair.find('-'); dash != std::string::npos; dash = pair.find('-', dash + 1)) {
+        const fluids::NasaSpecies* a = library.find(pair.substr(0, dash));
+        const fluids::NasaSpecies* b = library.find(pair.substr(dash + 1));
+        if (a && b) splits.emplace_back(a->name, b->name);
+      }
+      if (splits.size() != 1) {
+        refuse(fmt::format("{}: expected two species joined by '-', like \"CH4-CO2\"", where));
+      }
+      if (!value.is_number()) refuse(fmt::format("{}: expected k_ij as a number", where));
+      const double k = value.get<double>();
+      if (!(std::fabs(k) < 1) || splits[0].first == splits[0].second) {
+        refuse(fmt::format("{}: k_ij must lie between -1 and 1 for two different species, got {}", where,
+                           value.dump()));
+      }
+      o.interaction.push_back({splits[0].first, splits[0].second, k, true, true, "given in the case"});
+    }
+  }
+  return o;
+}
+
+std::shared_ptr<const fluids::FluidModel> make_cubic(const json& fluid, const std::string& path, fluids::CubicKind kind,
+                                                     const fluids::SpeciesLibrary& library,
+                                                     std::vector<std::string>& warnings) {
+  const std::string model = fluids::cubic_model_name(kind);
+  detail::warn_unknown_keys(fluid, {"model", "species", "mixture", "basis", "fluid", "critical", "interaction"},
+                            path + ".", warnings);
+  json j = fluid;
+  if (fluid.contains("fluid")) {
+    if (fluid.contains("species") || fluid.contains("mixture")) {
+      refuse(fmt::format("{}: give \"fluid\", or \"species\" or \"mixture\", not both", path));
+    }
+    j.update(named_composition(fluid, path));
+  }
+  const Composition c = read_composition(j, path, library, model, warnings, "\"species\", \"mixture\" or \"fluid\"");
+  const fluids::CubicOverrides overrides = read_cubic_overrides(fluid, path, library, warnings);
+  try {
+    auto gas = std::make_shared<fluids::CubicGas>(kind, c.components, c.basis, overrides);
+    warn_if_renormalised(gas->renormalised(), gas->given_sum(), path, warnings);
     return gas;
   } catch (const Error& e) {
     throw e.with_context(path);
@@ -205,6 +344,9 @@ std::string FluidFactory::label(const json& fluid, const fluids::FluidModel& mod
   if (fluid.is_string()) return fluid.get<std::string>();
   if (fluid.is_object() && fluid.contains("species") && fluid["species"].is_string()) {
     return fluid["species"].get<std::string>();
+  }
+  if (fluid.is_object() && fluid.contains("fluid") && fluid["fluid"].is_string()) {
+    return fluid["fluid"].get<std::string>();
   }
   return model.description();
 }
@@ -244,7 +386,7 @@ std::shared_ptr<const fluids::FluidModel> FluidFactory::build(const json& fluid,
   }
   if (!fluid.contains("model") || !fluid["model"].is_string()) {
     refuse(fmt::format("{}: a fluid object needs \"model\": one of constant-cp, nasa-polynomial, "
-                       "iapws-if97, incompressible",
+                       "peng-robinson, soave-redlich-kwong, iapws-if97, incompressible",
                        path));
   }
   const std::string model = fluid["model"].get<std::string>();
@@ -255,6 +397,11 @@ std::shared_ptr<const fluids::FluidModel> FluidFactory::build(const json& fluid,
   if (model == "nasa-polynomial") {
     detail::warn_unknown_keys(fluid, {"model", "species", "mixture", "basis"}, path + ".", warnings);
     return make_nasa(fluid, path, *species_, warnings);
+  }
+  if (model == "peng-robinson" || model == "soave-redlich-kwong") {
+    const auto kind =
+        model == "peng-robinson" ? fluids::CubicKind::peng_robinson : fluids::CubicKind::soave_redlich_kwong;
+    return make_cubic(fluid, path, kind, *species_, warnings);
   }
   if (model == "iapws-if97") {
     detail::warn_unknown_keys(fluid, {"model"}, path + ".", warnings);
@@ -275,7 +422,7 @@ std::shared_ptr<const fluids::FluidModel> FluidFactory::build(const json& fluid,
     }
   }
   refuse(fmt::format("{}.model: unknown model \"{}\"; models are constant-cp, nasa-polynomial, "
-                     "iapws-if97, incompressible",
+                     "peng-robinson, soave-redlich-kwong, iapws-if97, incompressible",
                      path, model));
 }
 

@@ -153,7 +153,8 @@ TEST_CASE("bad values are refused naming the key") {
   CHECK(refusal(R"({"machine": "compressor", "fluid": {"model": "constant-cp", "cp": 1005}})") ==
         "fluid: constant-cp fluid: give exactly two of cp, cv, k, R, molar_mass (got 1)");
   CHECK(refusal(R"({"machine": "compressor", "fluid": {"model": "redlich-kwong"}})") ==
-        "fluid.model: unknown model \"redlich-kwong\"; models are constant-cp, nasa-polynomial, iapws-if97, "
+        "fluid.model: unknown model \"redlich-kwong\"; models are constant-cp, nasa-polynomial, peng-robinson, "
+        "soave-redlich-kwong, iapws-if97, "
         "incompressible");
 }
 

@@ -30,6 +30,8 @@
 
 namespace shaftwork::fluids {
 
+class IdealGasMixture;
+
 // One temperature interval of a species' NASA polynomial.
 struct NasaInterval {
   double t_low = 0;   // K
@@ -95,7 +97,8 @@ struct Component {
   double fraction;
 };
 
-// Ideal gas on NASA polynomials: one species or an ideal mixture.
+// Ideal gas on NASA polynomials: one species or an ideal mixture; a FluidModel over
+// IdealGasMixture (the ideal-gas part, which the cubic equations of state share).
 //
 // The temperature range is the intersection of the species' ranges; a temperature outside
 // it throws out_of_range naming the species or mixture and the range (nothing is
@@ -129,7 +132,8 @@ class NasaPolynomialGas final : public FluidModel {
   bool renormalised() const;
   // The sum of the fractions as given, before renormalisation.
   double given_sum() const;
-
+  // The ideal-gas part this model is made of (ideal_gas_mixture.hpp).
+  const IdealGasMixture& ideal_gas() const;
 
  private:
   struct Impl;

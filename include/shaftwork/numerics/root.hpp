@@ -38,8 +38,8 @@ namespace shaftwork::numerics {
 
 struct RootOptions {
   double relative_tolerance = 1e-12;  // on the bracket width, relative to |x|
-  double absolute_tolerance = 0;      // on the bracket width, for roots at or near 0
   std::uintmax_t max_iterations = 200;
+  double absolute_tolerance = 0;  // on the bracket width, for roots at or near 0 (last: {rtol, budget} still reads)
 };
 
 struct RootResult {
