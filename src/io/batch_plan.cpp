@@ -1,6 +1,7 @@
 #include "batch_plan.hpp"
 
 #include <algorithm>
+#include <cmath>
 #include <functional>
 #include <string_view>
 
@@ -9,6 +10,7 @@
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/case_reader.hpp"
 #include "shaftwork/io/result_writer.hpp"
+#include "shaftwork/io/uncertainty_input.hpp"
 #include "shaftwork/text.hpp"
 
 namespace shaftwork::io {
@@ -144,6 +146,31 @@ std::string_view nearest_key(std::string_view key) {
   return best;
 }
 
+constexpr std::string_view kUncertaintyPrefix = "uncertainty.";
+
+// An uncertainty column "uncertainty.<case key> [unit]" (or "[%]"), or a refusal naming it.
+UncertaintyColumn uncertainty_column(std::size_t i, const std::string& header, const HeaderCell& cell,
+                                     const std::function<void(const std::string&)>& fail) {
+  const std::string_view key = cell.key.substr(kUncertaintyPrefix.size());
+  const InputSpec* spec = find_case_input(key);
+  if (!spec) fail(fmt::format("\"{}\" names no case value, such as outlet.temperature", key));
+  if (cell.brackets_malformed) fail("write the unit in square brackets after the key, as in \"uncertainty.power [%]\"");
+  UncertaintyColumn u;
+  u.index = i;
+  u.header = header;
+  u.input = spec->input;
+  u.relative = cell.unit == "%";
+  if (!u.relative && cell.unit.empty() && spec->dimension != Dimension::fraction) {
+    fail(fmt::format("an uncertainty needs its unit in square brackets, as in \"{} [{}]\", or \"[%]\" of the reading",
+                     cell.key, example_unit(spec->dimension)));
+  }
+  if (!u.relative && !cell.unit.empty()) {
+    const InputColumn as_value = input_column(i, header, *spec, cell.unit, fail);  // the unit's checks
+    u.scale = std::fabs(as_value.scale) * as_value.factor;
+  }
+  return u;
+}
+
 void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_name) {
   const std::vector<std::string>& header = plan.header;
   std::vector<std::pair<const InputSpec*, std::size_t>> seen;  // the case value of each column
@@ -160,6 +187,14 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
     const HeaderCell cell = split_header(field);
     if (cell.key == kMachineKey || cell.key == kFluidKey) {
       fail("machine and fluid come from the template (--case): they are the same for every row");
+    }
+    if (cell.key.substr(0, kUncertaintyPrefix.size()) == kUncertaintyPrefix) {
+      UncertaintyColumn u = uncertainty_column(i, header[i], cell, fail);
+      for (const UncertaintyColumn& other : plan.uncertainty_columns) {
+        if (other.input == u.input) fail(fmt::format("column {} \"{}\" gives it already; keep one", other.index + 1, other.header));
+      }
+      plan.uncertainty_columns.push_back(std::move(u));
+      continue;
     }
     const InputSpec* spec = find_case_input(cell.key);
     if (cell.key == kIdKey || cell.key == kNoteKey) {
@@ -237,6 +272,26 @@ std::vector<const ResultKey*> chosen_outputs(const std::vector<std::string>& key
   return out;
 }
 
+// Refuses an uncertainty that no value of the rows has (neither a column nor the template
+// gives its key); notes whether the batch states any.
+void plan_uncertainty(Plan& plan, const BatchTemplate& templ, std::size_t header_line, const std::string& points_name) {
+  const auto given = [&](Input input) { return templ.input.find(input) || column_gives(plan, machines::key_of(input)); };
+  for (const UncertaintyColumn& u : plan.uncertainty_columns) {
+    if (given(u.input)) continue;
+    refuse(fmt::format("{}: line {}, column {} \"{}\": neither a column nor the template gives {}", points_name,
+                       header_line, u.index + 1, u.header, machines::key_of(u.input)));
+  }
+  for (const StatedUncertainty& s : templ.input.uncertainty_by_key) {
+    if (given(s.input)) continue;
+    refuse(fmt::format("{}: {}.{}: neither the template nor a column of {} gives {}, so there is no reading to state "
+                       "an uncertainty for",
+                       templ.input.origin, kUncertaintyKey, machines::key_of(s.input), points_name,
+                       machines::key_of(s.input)));
+  }
+  plan.uncertainty = !plan.uncertainty_columns.empty() || !templ.input.uncertainty_by_key.empty() ||
+                     has_uncertainty(templ.input);
+}
+
 void plan_outputs(Plan& plan, const BatchTemplate& templ, const BatchOptions& options) {
   const std::vector<const ResultKey*> keys =
       options.columns.empty() ? default_outputs(plan, templ) : chosen_outputs(options.columns);
@@ -248,18 +303,23 @@ void plan_outputs(Plan& plan, const BatchTemplate& templ, const BatchOptions& op
   }
   if (!plan.header.empty()) line += ',';
   line += plan.solved_for_column ? "status,error,solved_for" : "status,error";
+  const auto header_of = [&](std::string_view prefix, const ResultKey* k) {
+    const std::string_view unit = column_unit(k->dimension, options.units);
+    line += ',';
+    line += csv_field(unit.empty() ? fmt::format("{}{}", prefix, k->key) : fmt::format("{}{} [{}]", prefix, k->key, unit));
+  };
   for (const ResultKey* k : keys) {
     OutputColumn out{k};
-    const std::string_view unit = column_unit(k->dimension, options.units);
-    if (!unit.empty()) {
+    if (const std::string_view unit = column_unit(k->dimension, options.units); !unit.empty()) {
       const units::UnitInfo& u = *units::find_unit(unit);
       out.scale = u.scale;
       out.offset = u.offset;
-      line += fmt::format(",{}", csv_field(fmt::format("{} [{}]", k->key, unit)));
-    } else {
-      line += fmt::format(",{}", k->key);
     }
+    header_of("", k);
     plan.outputs.push_back(out);
+  }
+  if (plan.uncertainty) {
+    for (const ResultKey* k : keys) header_of(kUncertaintyPrefix, k);
   }
   line += ",warnings\r\n";
 }
@@ -271,6 +331,7 @@ Plan make_plan(std::vector<std::string> header, std::size_t header_line, const s
   Plan plan;
   plan.header = std::move(header);
   plan_inputs(plan, header_line, points_name);
+  plan_uncertainty(plan, templ, header_line, points_name);
   plan_outputs(plan, templ, options);
   return plan;
 }

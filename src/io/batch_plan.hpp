@@ -26,6 +26,16 @@ struct InputColumn {
   bool gauge = false;
 };
 
+// A column that states the uncertainty of a case value, "uncertainty.outlet.temperature [K]":
+// U = scale * cell (SI, a difference), or with "[%]" cell / 100 of the row's reading.
+struct UncertaintyColumn {
+  std::size_t index = 0;
+  std::string header;
+  machines::Input input = machines::Input::inlet_pressure;
+  bool relative = false;
+  double scale = 1;  // SI per unit of the cell (g for a head in m)
+};
+
 // A result column: display = (SI - offset) / scale.
 struct OutputColumn {
   const ResultKey* key = nullptr;
@@ -38,6 +48,10 @@ struct Plan {
   std::optional<std::size_t> id_index;
   bool has_barometer_column = false;
   std::vector<OutputColumn> outputs;
+  std::vector<UncertaintyColumn> uncertainty_columns;
+  // The batch states uncertainties (columns or template): "uncertainty.<key> [unit]"
+  // columns follow the result columns.
+  bool uncertainty = false;
   bool solved_for_column = true;     // the default columns only
   std::string output_header;         // the whole csv header line, with its line end
   std::vector<std::string> notices;  // one per carried column

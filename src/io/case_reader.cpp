@@ -7,6 +7,7 @@
 
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/json_quantity.hpp"
+#include "shaftwork/io/uncertainty_input.hpp"
 
 namespace shaftwork::io {
 namespace {
@@ -19,7 +20,7 @@ using units::Dimension;
 [[noreturn]] void refuse(const std::string& message) { throw Error(ErrorKind::bad_input, message); }
 
 // Keys of a case that are not values of kInputs.
-constexpr std::string_view kOtherKeys[] = {kIdKey, kMachineKey, kFluidKey, kNoteKey};
+constexpr std::string_view kOtherKeys[] = {kIdKey, kMachineKey, kFluidKey, kNoteKey, kUncertaintyKey};
 
 // The first segment of a dotted key ("inlet" of "inlet.pressure"), and the rest.
 std::string_view head_of(std::string_view key) { return key.substr(0, key.find('.')); }
@@ -27,6 +28,9 @@ std::string_view tail_of(std::string_view key) {
   const auto dot = key.find('.');
   return dot == std::string_view::npos ? std::string_view() : key.substr(dot + 1);
 }
+
+// {"value": ..., "uncertainty": ...}: one value ("efficiency" as a bare value), not a section.
+bool is_measured(const json& v) { return v.is_object() && v.contains("value"); }
 
 // Warns of every key that no row of kInputs (and no other case key) names: a misspelt
 // key must never be silently ignored. Objects are the dotted keys' first segments.
@@ -43,7 +47,7 @@ void warn_unknown_keys(const json& c, std::vector<std::string>& warnings) {
       warnings.push_back(fmt::format("unknown key \"{}\" ignored", key));
       continue;
     }
-    if (!is_section || !item.value().is_object()) continue;
+    if (!is_section || !item.value().is_object() || is_measured(item.value())) continue;
     for (const auto& sub : item.value().items()) {
       const std::string dotted = key + "." + sub.key();
       if (!machines::find_input(dotted)) warnings.push_back(fmt::format("unknown key \"{}\" ignored", dotted));
@@ -72,9 +76,12 @@ const json* value_at(const json& c, const InputSpec& s) {
   const json& first = c[head];
   const std::string_view tail = tail_of(s.key);
   if (tail.empty()) return &first;
-  if (!first.is_object()) {
+  if (!first.is_object() || is_measured(first)) {
     if (s.input == Input::efficiency_isentropic) return &first;  // "efficiency": 0.82
     if (s.input == Input::efficiency_polytropic) return nullptr;
+    if (first.is_object()) {
+      refuse(fmt::format("{}: expected an object of keys such as \"{}\", got a measured value", head, tail));
+    }
     refuse(fmt::format("{}: expected an object, got {}", head, first.type_name()));
   }
   const std::string rest(tail);
@@ -90,8 +97,10 @@ Dimension reading_dimension(const InputSpec& s, const json& value) {
   return unit && unit->dimension == Dimension::length ? Dimension::length : Dimension::specific_energy;
 }
 
-GivenValue read_given(const InputSpec& s, const json& value, const std::string& path,
+GivenValue read_given(const InputSpec& s, const json& measured, const std::string& path,
                       const units::ParseContext& context, units::ParseNotes& notes) {
+  const auto [value_ptr, uncertainty] = split_measured(measured, path);
+  const json& value = *value_ptr;
   const Dimension d = reading_dimension(s, value);
   const ReadQuantity q = read_quantity(value, d, path, context, notes);
   GivenValue g;
@@ -105,6 +114,9 @@ GivenValue read_given(const InputSpec& s, const json& value, const std::string& 
   g.written = value.is_string() ? value.get<std::string>() : si.empty() ? value.dump() : value.dump() + " " + std::string(si);
   const std::string problem = given_value_problem(s.input, g.si, g.unit);
   if (!problem.empty()) refuse(fmt::format("{}: {}", path, problem));
+  if (uncertainty) {
+    g.uncertainty = read_stated_uncertainty(*uncertainty, s.input, fmt::format("{}.{}", path, kUncertaintyKey), context);
+  }
   return g;
 }
 
@@ -122,13 +134,19 @@ void read_values(const json& c, CaseInput& out) {
     const json* v = value_at(c, s);
     if (!v) continue;
     // "efficiency": 0.82 is named as written in messages.
-    const bool shorthand = s.input == Input::efficiency_isentropic && !c[std::string(head_of(s.key))].is_object();
+    const json& head = c[std::string(head_of(s.key))];
+    const bool shorthand = s.input == Input::efficiency_isentropic && (!head.is_object() || is_measured(head));
     out.given.push_back(read_given(s, *v, std::string(shorthand ? head_of(s.key) : s.key), context, notes));
   }
   // The barometer was read first; it belongs at its place in the table's order.
   std::stable_sort(out.given.begin(), out.given.end(),
                    [](const GivenValue& a, const GivenValue& b) { return a.input < b.input; });
   if (notes.used_default_barometer) out.warnings.emplace_back(kDefaultBarometerWarning);
+  const std::string uncertainty(kUncertaintyKey);
+  if (c.contains(uncertainty) && !c[uncertainty].is_null()) {
+    out.uncertainty_by_key = read_uncertainty_by_key(c[uncertainty], uncertainty, context);
+    apply_uncertainty_by_key(out, out.uncertainty_by_key);
+  }
 }
 
 }  // namespace

@@ -4,20 +4,31 @@
 
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/case_reader.hpp"
+#include "shaftwork/io/uncertainty_input.hpp"
 
 namespace shaftwork::io {
 
 using nlohmann::json;
 
-CaseOutcome rate_case(const json& case_object, size_t index, FluidFactory& fluids, const std::string& origin) {
+CaseOutcome rate_case(const json& case_object, size_t index, FluidFactory& fluids, const std::string& origin,
+                      const std::vector<StatedUncertainty>& file_uncertainty) {
   CaseOutcome outcome;
   outcome.id = case_label(case_object, index);
   outcome.origin = origin;
   try {
     CaseInput input = read_case(case_object, index, fluids, origin);
+    if (const std::string problem = unused_uncertainty_problem(input); !problem.empty()) {
+      throw Error(ErrorKind::bad_input, problem);
+    }
+    apply_uncertainty_by_key(input, file_uncertainty);
     outcome.warnings = input.warnings;
     machines::Rating rating = machines::rate(to_rating_input(input));
     outcome.warnings.insert(outcome.warnings.end(), rating.warnings.begin(), rating.warnings.end());
+    if (has_uncertainty(input)) {
+      outcome.uncertainty = propagate_uncertainty(input, rating);
+      const auto& w = outcome.uncertainty->warnings;
+      outcome.warnings.insert(outcome.warnings.end(), w.begin(), w.end());
+    }
     outcome.input = std::move(input);
     outcome.rating = std::move(rating);
   } catch (const Error& e) {
@@ -28,11 +39,25 @@ CaseOutcome rate_case(const json& case_object, size_t index, FluidFactory& fluid
   return outcome;
 }
 
+std::vector<StatedUncertainty> file_uncertainty(const json& document, const std::string& origin) {
+  const std::string key(kUncertaintyKey);
+  // A document that is one case: its "uncertainty" is the case's own.
+  if (!document.is_object() || !document.contains("cases") || !document.contains(key) || document[key].is_null()) {
+    return {};
+  }
+  try {
+    return read_uncertainty_by_key(document[key], key);
+  } catch (const Error& e) {
+    throw e.with_context(origin);
+  }
+}
+
 std::vector<CaseOutcome> rate_document(const json& document, const std::string& origin, FluidFactory& fluids) {
   std::vector<CaseOutcome> outcomes;
   const auto cases = case_objects(document, origin);
+  const std::vector<StatedUncertainty> defaults = file_uncertainty(document, origin);
   outcomes.reserve(cases.size());
-  for (size_t i = 0; i < cases.size(); ++i) outcomes.push_back(rate_case(*cases[i], i, fluids, origin));
+  for (size_t i = 0; i < cases.size(); ++i) outcomes.push_back(rate_case(*cases[i], i, fluids, origin, defaults));
   return outcomes;
 }
 

@@ -73,6 +73,23 @@ std::string format_number(double value, Precision precision) {
   return std::string(buffer, format_significant(buffer, value, precision.digits));
 }
 
+double difference_from_si(double si, std::string_view unit) {
+  const units::UnitInfo* u = unit.empty() ? nullptr : units::find_unit(unit);
+  return u ? si / std::fabs(u->scale) : si;
+}
+
+std::string DisplayUnits::text(double si, std::optional<double> u_si, Dimension d, Precision precision) const {
+  const std::string_view u = unit(d);
+  std::string out = format_number(u.empty() ? si : units::from_si(si, u, d, barometer_), precision);
+  if (u_si) {
+    const Precision two{Precision::Kind::significant, 2};
+    out += fmt::format(" ± {}", format_number(difference_from_si(*u_si, u), two));
+  } else {
+    out += " ± n/a";
+  }
+  return u.empty() ? out : fmt::format("{} {}", out, u);
+}
+
 std::string DisplayUnits::text(double si, Dimension d, Precision precision) const {
   const std::string_view u = unit(d);
   if (u.empty()) return format_number(si, precision);

@@ -1,5 +1,6 @@
 // Results as CSV for spreadsheets: one row per case, a column per result key in the
 // unit system's unit (RFC 4180: CRLF line ends, quoted fields where needed).
+#include <algorithm>
 #include <cmath>
 
 #include <fmt/format.h>
@@ -21,14 +22,43 @@ std::string csv_field(std::string_view text) {
   return quoted + '"';
 }
 
+namespace {
+
+constexpr int kDigits = 10;
+
+// "outlet.temperature [degC]", or the key alone for a fraction; `prefix` "uncertainty.".
+std::string column_header(std::string_view prefix, const ResultKey& k, UnitSystem system) {
+  const std::string_view unit = column_unit(k.dimension, system);
+  return csv_field(unit.empty() ? fmt::format("{}{}", prefix, k.key) : fmt::format("{}{} [{}]", prefix, k.key, unit));
+}
+
+// The cells of the uncertainty columns: U of each result key in its column's unit.
+void write_uncertainty_cells(std::ostream& out, const CaseOutcome& o, UnitSystem system) {
+  const auto& keys = result_keys();
+  for (std::size_t k = 0; k < keys.size(); ++k) {
+    out << ',';
+    if (!o.ok() || !o.uncertainty || k >= o.uncertainty->expanded.size()) continue;
+    const std::optional<double> u = o.uncertainty->expanded[k];
+    if (!u) continue;
+    std::string text;
+    append_significant(text, difference_from_si(*u, column_unit(keys[k].dimension, system)), kDigits);
+    out << text;
+  }
+}
+
+}  // namespace
+
+// With uncertainties in any case, a column "uncertainty.<key> [unit]" for every result key
+// follows the result columns (the results keep their places).
 void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, UnitSystem system) {
+  const bool uncertainty = std::any_of(outcomes.begin(), outcomes.end(),
+                                       [](const CaseOutcome& o) { return o.uncertainty.has_value(); });
   out << "id,file,status,error,machine,fluid,model,solved_for";
-  for (const ResultKey& k : result_keys()) {
-    const std::string_view unit = column_unit(k.dimension, system);
-    out << ',' << csv_field(unit.empty() ? std::string(k.key) : fmt::format("{} [{}]", k.key, unit));
+  for (const ResultKey& k : result_keys()) out << ',' << column_header("", k, system);
+  if (uncertainty) {
+    for (const ResultKey& k : result_keys()) out << ',' << column_header("uncertainty.", k, system);
   }
   out << ",warnings\r\n";
-  constexpr int kDigits = 10;
   for (const auto& o : outcomes) {
     out << csv_field(o.id) << ',' << csv_field(o.origin) << ',' << (o.ok() ? "ok" : "error") << ','
         << csv_field(o.error) << ',';
@@ -49,6 +79,7 @@ void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, Unit
       out << ",,,";
       for (std::size_t i = 0; i < result_keys().size(); ++i) out << ',';
     }
+    if (uncertainty) write_uncertainty_cells(out, o, system);
     out << ',' << csv_field(fmt::format("{}", fmt::join(o.warnings, "; "))) << "\r\n";
   }
 }

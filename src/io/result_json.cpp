@@ -15,9 +15,9 @@ using nlohmann::ordered_json;
 
 // An SI value rounded to 15 significant digits: the digits a double holds for sure, so
 // that unit conversions leave no noise in the last place (4120800, not 4120800.0000000005).
-double rounded(double x) {
+double rounded(double x, int digits = 15) {
   if (x == 0 || !std::isfinite(x)) return x + 0.0;
-  const std::string text = fmt::format("{:.15g}", x);
+  const std::string text = fmt::format("{:.{}g}", x, digits);
   return std::strtod(text.c_str(), nullptr);
 }
 
@@ -47,6 +47,36 @@ ordered_json given_json(const CaseInput& in) {
   return given;
 }
 
+// An uncertainty's digits: six, far more than it is known to (GUM 7.2.6 quotes two), enough
+// to compute with, and clear of the last digits' noise of the sensitivity differences.
+constexpr int kUncertaintyDigits = 6;
+
+// U of every result that has a value, by dotted key; null where it is not available.
+ordered_json uncertainty_json(const UncertaintyResult& u, const machines::Rating& r) {
+  ordered_json out = ordered_json::object();
+  const auto& keys = result_keys();
+  for (std::size_t k = 0; k < keys.size(); ++k) {
+    const std::optional<double> v = keys[k].value(r);
+    if (!v || !std::isfinite(*v)) continue;
+    const std::optional<double> expanded = k < u.expanded.size() ? u.expanded[k] : std::nullopt;
+    out[std::string(keys[k].key)] = expanded ? ordered_json(rounded(*expanded, kUncertaintyDigits)) : ordered_json(nullptr);
+  }
+  return out;
+}
+
+ordered_json contributions_json(const UncertaintyResult& u) {
+  ordered_json out = ordered_json::object();
+  for (const KeyContributions& c : u.contributions) {
+    ordered_json shares = ordered_json::array();
+    for (const Contribution& share : c.shares) {
+      shares.push_back({{"input", machines::key_of(share.input)},
+                        {"share_percent", std::round(10 * share.share_percent) / 10}});
+    }
+    out[std::string(c.key)] = std::move(shares);
+  }
+  return out;
+}
+
 }  // namespace
 
 ordered_json result_json(const CaseOutcome& o) {
@@ -73,6 +103,10 @@ ordered_json result_json(const CaseOutcome& o) {
     place(j, k.key, *v);
   }
   if (r.efficiency_check) j["efficiency_check"]["key"] = machines::key_of(r.efficiency_check->input);
+  if (o.uncertainty) {
+    j["uncertainty"] = uncertainty_json(*o.uncertainty, r);
+    j["uncertainty_contributions"] = contributions_json(*o.uncertainty);
+  }
   j["warnings"] = o.warnings;
   return j;
 }

@@ -17,8 +17,15 @@
 namespace shaftwork::io {
 
 // Rates one case object of the file `origin`; never throws for a problem of the case itself.
+// `file_uncertainty`: the file's uncertainties by key, for the given values that state none
+// (the case's own statements first). With uncertainties, the outcome carries their
+// propagation to every result.
 CaseOutcome rate_case(const nlohmann::json& case_object, size_t index, FluidFactory& fluids,
-                      const std::string& origin = "");
+                      const std::string& origin = "", const std::vector<StatedUncertainty>& file_uncertainty = {});
+
+// The uncertainties by key of a file of cases (its "uncertainty" beside "cases"). Throws
+// bad_input "<origin>: uncertainty...: ..." for a bad one: every case would carry it.
+std::vector<StatedUncertainty> file_uncertainty(const nlohmann::json& document, const std::string& origin);
 
 // Rates every case of a document. Throws bad_input when it is not a case file.
 std::vector<CaseOutcome> rate_document(const nlohmann::json& document, const std::string& origin,

@@ -12,6 +12,7 @@
 
 #include "shaftwork/io/case_input.hpp"
 #include "shaftwork/io/display_units.hpp"
+#include "shaftwork/io/uncertainty.hpp"
 #include "shaftwork/machines/rating.hpp"
 
 namespace shaftwork::io {
@@ -24,6 +25,8 @@ struct CaseOutcome {
   std::optional<machines::Rating> rating;
   std::string error;  // set when !rating
   std::vector<std::string> warnings;
+  // Present when the case's given values carry uncertainties (the rating's, propagated).
+  std::optional<UncertaintyResult> uncertainty = {};
 
   bool ok() const { return rating.has_value(); }
 };
