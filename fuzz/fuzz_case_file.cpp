@@ -44,6 +44,16 @@ void require_sane(const shaftwork::machines::Rating& r) {
   if (r.power_balance) FUZZ_REQUIRE(std::isfinite(r.power_balance->difference_percent));
 }
 
+// Every propagated uncertainty a finite U >= 0, every share in [0, 100].
+void require_sane(const shaftwork::io::UncertaintyResult& u) {
+  for (const auto& expanded : u.expanded) {
+    if (expanded) FUZZ_REQUIRE(std::isfinite(*expanded) && *expanded >= 0);
+  }
+  for (const auto& key : u.contributions) {
+    for (const auto& share : key.shares) FUZZ_REQUIRE(share.share_percent >= 0 && share.share_percent <= 100 + 1e-9);
+  }
+}
+
 }  // namespace
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
@@ -61,6 +71,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   for (const auto& outcome : outcomes) {
     if (outcome.ok()) {
       require_sane(*outcome.rating);
+      if (outcome.uncertainty) require_sane(*outcome.uncertainty);
     } else {
       FUZZ_REQUIRE(!outcome.error.empty());
     }

@@ -71,6 +71,7 @@ class CaseTable {
     if (!shares || shares->empty()) return;
     std::string line = "    U² from ";
     for (std::size_t i = 0; i < shares->size() && i < kContributorsShown; ++i) {
+      if ((*shares)[i].share_percent < 0.5) break;  // would read "0 %"
       line += fmt::format("{}{} {:.0f} %", i ? ", " : "", machines::spec((*shares)[i].input).label,
                           (*shares)[i].share_percent);
     }

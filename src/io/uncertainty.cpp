@@ -18,6 +18,10 @@ using machines::Input;
 constexpr double kStepFraction = 0.1;        // h_i = U_i / 10 ...
 constexpr double kRelativeStepFloor = 1e-5;  // ... and at least 1e-5 |x_i| (the header says why)
 constexpr double kNoiseFloor = 1e-9;         // |c_i U_i| at most this part of |y|: solver noise
+// Above this U / eta the efficiency's distribution is visibly skewed and +-U misplaces its
+// 95 % interval (tests/io/test_uncertainty.cpp: at U / eta = 0.14 the interval reaches
+// +1.11 U and -0.86 U). A rule of thumb of this code, not a published limit.
+constexpr double kNonlinearShare = 0.1;
 
 std::size_t index_of(Input input) { return static_cast<std::size_t>(input); }
 
@@ -25,10 +29,18 @@ std::optional<double> finite(std::optional<double> v) {
   return v && std::isfinite(*v) ? v : std::nullopt;
 }
 
-// "outlet.temperature by 0.03 K", for warnings.
-std::string step_text(Input input, double h) {
+// "outlet.temperature raised by 0.05 K", for warnings.
+std::string step_text(Input input, std::string_view moved, double h) {
   const std::string_view unit = si_symbol(machines::spec(input).dimension);
-  return fmt::format("{} by {:.3g}{}{}", machines::key_of(input), h, unit.empty() ? "" : " ", unit);
+  return fmt::format("{} {} by {:.3g}{}{}", machines::key_of(input), moved, h, unit.empty() ? "" : " ", unit);
+}
+
+// Warns where an efficiency's U is so large a part of it that first order does not hold.
+void warn_if_nonlinear(const ResultKey& k, double value, double u, UncertaintyResult& out) {
+  if (k.section != Section::efficiency || u <= kNonlinearShare * std::fabs(value)) return;
+  out.warnings.push_back(fmt::format("uncertainty: {} is {:.4f} ± {:.2g}: U above a tenth of the value, where "
+                                     "first-order propagation misplaces the 95 % interval (docs/uncertainty.md)",
+                                     k.key, value, u));
 }
 
 }  // namespace
@@ -121,16 +133,16 @@ void UncertaintyPropagator::vary(machines::RatingInput& input, const Uncertainty
   const bool down = rate_shifted(input, sources, v.input, -h, minus_, why_down);
   out.ratings += 2;
   if (!up && !down) {
-    out.warnings.push_back(fmt::format("uncertainty: the case cannot be rated with {} raised or lowered ({}): the "
-                                       "uncertainties of the results are not available",
-                                       step_text(v.input, h), why_up));
+    out.warnings.push_back(fmt::format("uncertainty: the case cannot be rated with {} ({}): the uncertainties of the "
+                                       "results are not available",
+                                       step_text(v.input, "raised or lowered", h), why_up));
     std::fill(unavailable_.begin(), unavailable_.end(), 1);
     return;
   }
   if (!up || !down) {
-    out.warnings.push_back(fmt::format("uncertainty: the case cannot be rated with {} {} ({}): a one-sided "
-                                       "difference was used",
-                                       step_text(v.input, h), up ? "lowered" : "raised", up ? why_down : why_up));
+    out.warnings.push_back(fmt::format("uncertainty: the case cannot be rated with {} ({}): a one-sided difference "
+                                       "was used",
+                                       step_text(v.input, up ? "lowered" : "raised", h), up ? why_down : why_up));
   }
   std::string missing;
   for (std::size_t j = 0; j < keys_.size(); ++j) {
@@ -153,8 +165,8 @@ void UncertaintyPropagator::vary(machines::RatingInput& input, const Uncertainty
     if (contribution_slot_[j] >= 0) squares_[static_cast<std::size_t>(contribution_slot_[j])][i] = d * d;
   }
   if (!missing.empty()) {
-    out.warnings.push_back(fmt::format("uncertainty: {} not available: no value with {} raised or lowered", missing,
-                                       step_text(v.input, h)));
+    out.warnings.push_back(fmt::format("uncertainty: {} not available: no value with {}", missing,
+                                       step_text(v.input, "raised or lowered", h)));
   }
 }
 
@@ -196,7 +208,14 @@ void UncertaintyPropagator::shift(machines::RatingInput& input, const Uncertaint
 
 void UncertaintyPropagator::finish(const UncertaintySources& sources, UncertaintyResult& out) const {
   for (std::size_t j = 0; j < keys_.size(); ++j) {
-    if (nominal_[j] && !unavailable_[j]) out.expanded[keys_[j]] = std::sqrt(sum_squares_[j]);
+    if (!nominal_[j] || unavailable_[j]) continue;
+    const double u = std::sqrt(sum_squares_[j]);
+    if (std::isfinite(u)) {
+      out.expanded[keys_[j]] = u;
+      warn_if_nonlinear(result_keys()[keys_[j]], *nominal_[j], u, out);
+    } else {  // only from absurd statements, such as 1e200 K
+      out.warnings.push_back(fmt::format("uncertainty: {} not available: it overflows", result_keys()[keys_[j]].key));
+    }
   }
   out.contributions.clear();
   for (std::size_t slot = 0; slot < kContributionKeys.size(); ++slot) {

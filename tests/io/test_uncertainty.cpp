@@ -277,9 +277,11 @@ TEST_CASE("first order against Monte Carlo (JCGM 101:2008): agreement where the 
   CHECK(mc.refused == 0);
   // 2 sigma of 10^5 draws is known to about 0.3 % (its relative standard error is 1/sqrt(2N)).
   CHECK(mc.two_sigma() == Approx(u).epsilon(0.02));
-  // The 95 % interval of the draws is +-U about the value, within 3 % on either side.
-  CHECK(mc.quantile(0.975) - 0.8 == Approx(u).epsilon(0.03));
-  CHECK(0.8 - mc.quantile(0.025) == Approx(u).epsilon(0.03));
+  // The central 95 % of the draws spans +-1.96 sigma = +-0.98 U about the value (k = 2 is
+  // 95.45 % of a normal distribution), within 2 % on either side: the quantiles of 10^5
+  // draws are known to about 0.5 %.
+  CHECK(mc.quantile(0.975) - 0.8 == Approx(0.98 * u).epsilon(0.02));
+  CHECK(0.8 - mc.quantile(0.025) == Approx(0.98 * u).epsilon(0.02));
 }
 
 TEST_CASE("first order against Monte Carlo: a pressure ratio of 1.05, where it does not hold") {
@@ -294,9 +296,11 @@ TEST_CASE("first order against Monte Carlo: a pressure ratio of 1.05, where it d
   CHECK(u == Approx(0.113).epsilon(0.01));  // a tenth of the efficiency, from 0.5 K thermometers
   const MonteCarlo mc = monte_carlo(io::to_rating_input(r.input), {1e5, 293.15, 1.05e5, t2}, {100, 0.5, 105, 0.5}, 100000);
   CHECK(mc.two_sigma() == Approx(u).epsilon(0.03));
+  // Where a normal distribution would put 0.98 U on either side, the draws reach 1.11 U
+  // up and 0.86 U down (this generator and seed).
   CHECK((mc.quantile(0.975) - 0.8) / u > 1.08);
-  CHECK((0.8 - mc.quantile(0.025)) / u < 0.92);
-  CHECK(mc.refused > 50);  // about 0.2 % of the draws
+  CHECK((0.8 - mc.quantile(0.025)) / u < 0.90);
+  CHECK(mc.refused > 50);  // 230 of 10^5 with this generator and seed
 }
 
 TEST_CASE("a step the model refuses leaves a one-sided difference, with a warning") {
@@ -306,7 +310,7 @@ TEST_CASE("a step the model refuses leaves a one-sided difference, with a warnin
       "outlet": {"pressure": "1 bar", "quality": {"value": 1, "uncertainty": 0.01}},
       "mass_flow": "2 kg/s"})"));
   REQUIRE(r.uncertainty.warnings.size() == 1);
-  CHECK(r.uncertainty.warnings[0].rfind("uncertainty: the case cannot be rated with outlet.quality by 0.001 raised (", 0) == 0);
+  CHECK(r.uncertainty.warnings[0].rfind("uncertainty: the case cannot be rated with outlet.quality raised by 0.001 (", 0) == 0);
   CHECK(r.uncertainty.warnings[0].find("): a one-sided difference was used") != std::string::npos);
   const std::optional<double> u = r.uncertainty.of("efficiency.isentropic");
   REQUIRE(u);
