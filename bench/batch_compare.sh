@@ -20,16 +20,7 @@ repeats=${REPEATS:-3}
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
 
-awk -v rows="$rows" 'BEGIN {
-  srand(20260302)
-  print "id,inlet.pressure [barg],inlet.temperature [degC],outlet.pressure [barg],outlet.temperature [degC],mass_flow [t/h]"
-  for (i = 0; i < rows; i++) {
-    t1 = 15 + 15 * rand(); p1 = -0.02 + 0.04 * rand(); p2 = 6 + 2 * rand(); eta = 0.78 + 0.06 * rand()
-    T1 = t1 + 273.15; ratio = (p2 + 0.991) / (p1 + 0.991)
-    T2 = T1 + T1 * (exp(log(ratio) * 0.4 / 1.4) - 1) / eta
-    printf "%d,%.4f,%.2f,%.3f,%.2f,%.3f\n", i, p1, t1, p2, T2 - 273.15, 5 + rand()
-  }
-}' >"$work/log.csv"
+awk -v rows="$rows" -f "$(dirname "$0")/compressor_log.awk" >"$work/log.csv"
 cat >"$work/template.json" <<'JSON'
 { "id": "benchmark log", "machine": "compressor", "fluid": "air",
   "site": { "barometric_pressure": "99.1 kPa" }, "mechanical_efficiency": 0.975 }

@@ -107,14 +107,14 @@ class UncertaintyPropagator {
  private:
   void vary(machines::RatingInput& input, const UncertaintySources& sources, std::size_t i, UncertaintyResult& out);
   bool rate_shifted(machines::RatingInput& input, const UncertaintySources& sources, machines::Input varied,
-                    double delta, std::vector<std::optional<double>>& values, std::string& why);
+                    double delta, std::vector<double>& values, std::string& why);
   void shift(machines::RatingInput& input, const UncertaintySources& sources, machines::Input varied, double delta);
   void finish(const UncertaintySources& sources, UncertaintyResult& out) const;
 
   std::vector<std::size_t> keys_;                                     // result keys found
   std::vector<int> contribution_slot_;  // by position in keys_: its place in kContributionKeys, or -1
   std::array<std::optional<double>, machines::kInputCount> saved_{};  // the input's fields as given
-  std::vector<std::optional<double>> nominal_, plus_, minus_;         // by position in keys_
+  std::vector<double> nominal_, plus_, minus_;  // by position in keys_; NaN: no value
   std::vector<double> sum_squares_;
   std::vector<char> unavailable_;
   std::array<std::array<double, machines::kInputCount>, kContributionKeys.size()> squares_{};  // (c_i U_i)^2
