@@ -10,18 +10,8 @@
 #
 # Times with hyperfine (wall clock, whole process, mean of RUNS runs after one warm-up),
 # then the CPU time of one run with /usr/bin/time.
-set -eu
-bin=${1:-build/shaftwork}
-rows=${2:-1000000}
+source "$(dirname "$0")/batch_log.bash"
 runs=${RUNS:-5}
-work=$(mktemp -d)
-trap 'rm -rf "$work"' EXIT
-
-awk -v rows="$rows" -f "$(dirname "$0")/compressor_log.awk" >"$work/log.csv"
-cat >"$work/plain.json" <<'JSON'
-{ "id": "benchmark log", "machine": "compressor", "fluid": "air",
-  "site": { "barometric_pressure": "99.1 kPa" }, "mechanical_efficiency": 0.975 }
-JSON
 cat >"$work/uncertain.json" <<'JSON'
 { "id": "benchmark log with uncertainties", "machine": "compressor", "fluid": "air",
   "site": { "barometric_pressure": { "value": "99.1 kPa", "uncertainty": "0.1 kPa" } },
@@ -33,7 +23,7 @@ JSON
 echo "machine:  $(lscpu | sed -n 's/^Model name: *//p' | head -n 1), $(nproc) cores; load: $(cut -d' ' -f1-3 /proc/loadavg)"
 echo "rows:     $rows"
 hyperfine --warmup 1 --runs "$runs" --export-json "$work/times.json" \
-  -n plain "$bin rate $work/log.csv --case $work/plain.json --quiet -o $work/plain.csv" \
+  -n plain "$bin rate $work/log.csv --case $work/template.json --quiet -o $work/plain.csv" \
   -n uncertainties "$bin rate $work/log.csv --case $work/uncertain.json --quiet -o $work/uncertain.csv"
 /usr/bin/python3 - "$work/times.json" "$rows" <<'PY'
 import json, sys

@@ -191,7 +191,8 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
     if (cell.key.substr(0, kUncertaintyPrefix.size()) == kUncertaintyPrefix) {
       UncertaintyColumn u = uncertainty_column(i, header[i], cell, fail);
       for (const UncertaintyColumn& other : plan.uncertainty_columns) {
-        if (other.input == u.input) fail(fmt::format("column {} \"{}\" gives it already; keep one", other.index + 1, other.header));
+        if (other.input != u.input) continue;
+        fail(fmt::format("column {} \"{}\" gives it already; keep one", other.index + 1, other.header));
       }
       plan.uncertainty_columns.push_back(std::move(u));
       continue;
@@ -241,12 +242,17 @@ bool column_gives(const Plan& plan, std::string_view key) {
                      [key](const InputColumn& c) { return machines::key_of(c.input) == key; });
 }
 
+// Whether the template or a column gives this case value.
+bool batch_gives(const Plan& plan, const BatchTemplate& templ, Input input) {
+  return templ.input.find(input) || column_gives(plan, machines::key_of(input));
+}
+
 // The default result columns: those that batches write, apply to this machine and
 // fluid, and do not repeat an input column (its key is the same).
 std::vector<const ResultKey*> default_outputs(const Plan& plan, const BatchTemplate& templ) {
   const bool two_phase = templ.input.fluid->saturation_temperature(units::kStandardAtmosphere).has_value();
   const bool pump = templ.input.machine == machines::MachineKind::pump;
-  const auto given = [&](Input input) { return templ.input.find(input) || column_gives(plan, machines::key_of(input)); };
+  const auto given = [&](Input input) { return batch_gives(plan, templ, input); };
   const bool flow = given(Input::mass_flow) || given(Input::volume_flow) || given(Input::standard_volume_flow);
   const bool power = given(Input::power);
   const bool efficiency = given(Input::efficiency_isentropic) || given(Input::efficiency_polytropic);
@@ -275,7 +281,7 @@ std::vector<const ResultKey*> chosen_outputs(const std::vector<std::string>& key
 // Refuses an uncertainty that no value of the rows has (neither a column nor the template
 // gives its key); notes whether the batch states any.
 void plan_uncertainty(Plan& plan, const BatchTemplate& templ, std::size_t header_line, const std::string& points_name) {
-  const auto given = [&](Input input) { return templ.input.find(input) || column_gives(plan, machines::key_of(input)); };
+  const auto given = [&](Input input) { return batch_gives(plan, templ, input); };
   for (const UncertaintyColumn& u : plan.uncertainty_columns) {
     if (given(u.input)) continue;
     refuse(fmt::format("{}: line {}, column {} \"{}\": neither a column nor the template gives {}", points_name,
@@ -306,7 +312,8 @@ void plan_outputs(Plan& plan, const BatchTemplate& templ, const BatchOptions& op
   const auto header_of = [&](std::string_view prefix, const ResultKey* k) {
     const std::string_view unit = column_unit(k->dimension, options.units);
     line += ',';
-    line += csv_field(unit.empty() ? fmt::format("{}{}", prefix, k->key) : fmt::format("{}{} [{}]", prefix, k->key, unit));
+    line += csv_field(unit.empty() ? fmt::format("{}{}", prefix, k->key)
+                                   : fmt::format("{}{} [{}]", prefix, k->key, unit));
   };
   for (const ResultKey* k : keys) {
     OutputColumn out{k};

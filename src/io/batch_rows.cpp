@@ -123,7 +123,9 @@ namespace {
 UncertaintyPropagator propagator_for(const BatchShared& shared) {
   if (shared.options.format == BatchFormat::jsonl) return UncertaintyPropagator();
   std::vector<std::size_t> keys;
-  for (const OutputColumn& o : shared.plan.outputs) keys.push_back(static_cast<std::size_t>(o.key - result_keys().data()));
+  for (const OutputColumn& o : shared.plan.outputs) {
+    keys.push_back(static_cast<std::size_t>(o.key - result_keys().data()));
+  }
   return UncertaintyPropagator(std::move(keys));
 }
 

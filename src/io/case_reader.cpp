@@ -115,7 +115,8 @@ GivenValue read_given(const InputSpec& s, const json& measured, const std::strin
   const std::string problem = given_value_problem(s.input, g.si, g.unit);
   if (!problem.empty()) refuse(fmt::format("{}: {}", path, problem));
   if (uncertainty) {
-    g.uncertainty = read_stated_uncertainty(*uncertainty, s.input, fmt::format("{}.{}", path, kUncertaintyKey), context);
+    const std::string where = fmt::format("{}.{}", path, kUncertaintyKey);
+    g.uncertainty = read_stated_uncertainty(*uncertainty, s.input, where, context);
   }
   return g;
 }

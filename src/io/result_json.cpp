@@ -59,7 +59,8 @@ ordered_json uncertainty_json(const UncertaintyResult& u, const machines::Rating
     const std::optional<double> v = keys[k].value(r);
     if (!v || !std::isfinite(*v)) continue;
     const std::optional<double> expanded = k < u.expanded.size() ? u.expanded[k] : std::nullopt;
-    out[std::string(keys[k].key)] = expanded ? ordered_json(rounded(*expanded, kUncertaintyDigits)) : ordered_json(nullptr);
+    out[std::string(keys[k].key)] =
+        expanded ? ordered_json(rounded(*expanded, kUncertaintyDigits)) : ordered_json(nullptr);
   }
   return out;
 }

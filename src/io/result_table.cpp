@@ -164,7 +164,8 @@ class CaseTable {
       // The given efficiency and the one from the states rest on different inputs.
       const std::optional<double> computed = uncertainty_of("efficiency_check.computed");
       const std::optional<double> given = uncertainty_of("efficiency_check.given");
-      const std::string u = computed && given ? plus_minus(100 * std::hypot(*computed, *given)) : plus_minus(std::nullopt);
+      const std::string u =
+          computed && given ? plus_minus(100 * std::hypot(*computed, *given)) : plus_minus(std::nullopt);
       check(machines::spec(ec->input).label, fmt::format("{:.4f}", ec->given), fmt::format("{:.4f}", ec->computed),
             fmt::format("{:+.2f}{} points", 100 * (ec->computed - ec->given), u));
     }

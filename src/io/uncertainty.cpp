@@ -88,8 +88,8 @@ UncertaintyPropagator::UncertaintyPropagator() {
   for (std::size_t k = 0; k < all.size(); ++k) {
     keys_.push_back(k);
     const auto found = std::find(kContributionKeys.begin(), kContributionKeys.end(), all[k].key);
-    contribution_slot_.push_back(found == kContributionKeys.end() ? -1
-                                                                   : static_cast<int>(found - kContributionKeys.begin()));
+    const bool reported = found != kContributionKeys.end();
+    contribution_slot_.push_back(reported ? static_cast<int>(found - kContributionKeys.begin()) : -1);
   }
   nominal_.resize(keys_.size());
   plus_.resize(keys_.size());

@@ -294,7 +294,8 @@ TEST_CASE("first order against Monte Carlo: a pressure ratio of 1.05, where it d
   const Rated r = rate_with_uncertainty(four_knowns(105000, t2, 0.5));
   const double u = *r.uncertainty.of("efficiency.isentropic");
   CHECK(u == Approx(0.113).epsilon(0.01));  // a tenth of the efficiency, from 0.5 K thermometers
-  const MonteCarlo mc = monte_carlo(io::to_rating_input(r.input), {1e5, 293.15, 1.05e5, t2}, {100, 0.5, 105, 0.5}, 100000);
+  const MonteCarlo mc =
+      monte_carlo(io::to_rating_input(r.input), {1e5, 293.15, 1.05e5, t2}, {100, 0.5, 105, 0.5}, 100000);
   CHECK(mc.two_sigma() == Approx(u).epsilon(0.03));
   // Where a normal distribution would put 0.98 U on either side, the draws reach 1.11 U
   // up and 0.86 U down (this generator and seed).
@@ -310,7 +311,8 @@ TEST_CASE("a step the model refuses leaves a one-sided difference, with a warnin
       "outlet": {"pressure": "1 bar", "quality": {"value": 1, "uncertainty": 0.01}},
       "mass_flow": "2 kg/s"})"));
   REQUIRE(r.uncertainty.warnings.size() == 1);
-  CHECK(r.uncertainty.warnings[0].rfind("uncertainty: the case cannot be rated with outlet.quality raised by 0.001 (", 0) == 0);
+  CHECK(r.uncertainty.warnings[0].rfind("uncertainty: the case cannot be rated with outlet.quality raised by 0.001 (",
+                                        0) == 0);
   CHECK(r.uncertainty.warnings[0].find("): a one-sided difference was used") != std::string::npos);
   const std::optional<double> u = r.uncertainty.of("efficiency.isentropic");
   REQUIRE(u);
@@ -323,8 +325,8 @@ TEST_CASE("bad uncertainties are refused with the key and the problem") {
     io::FluidFactory fluids;
     return io::rate_case(json::parse(text), 0, fluids).error;
   };
-  const std::string head = R"({"machine": "compressor", "fluid": "air", "inlet": {"pressure": "1 bar", "temperature": "20 degC"},
-      "outlet": {"pressure": "3 bar", )";
+  const std::string head = R"({"machine": "compressor", "fluid": "air",
+      "inlet": {"pressure": "1 bar", "temperature": "20 degC"}, "outlet": {"pressure": "3 bar", )";
   CHECK(error_of_case(head + R"("temperature": {"value": "150 degC", "uncertainty": "0.3 kPa"}}})") ==
         "outlet.temperature.uncertainty: \"0.3 kPa\": a pressure unit where a temperature belongs");
   CHECK(error_of_case(head + R"("temperature": {"value": "150 degC", "uncertainty": "-0.3 K"}}})") ==
@@ -355,5 +357,7 @@ TEST_CASE("bad uncertainties are refused with the key and the problem") {
   const Error e = test::error_of([&] {
     io::rate_document(json::parse(R"({"uncertainty": {"power": "1.5 kW/s"}, "cases": [{}]})"), "f.json", fluids);
   });
-  CHECK(std::string(e.what()) == "f.json: uncertainty.power: \"1.5 kW/s\": unknown unit \"kW/s\" for a power; known units: W, kW, MW, hp, Btu/h");
+  CHECK(std::string(e.what()) ==
+        "f.json: uncertainty.power: \"1.5 kW/s\": unknown unit \"kW/s\" for a power; known units: W, kW, MW, hp, "
+        "Btu/h");
 }
