@@ -168,6 +168,7 @@ struct NasaPolynomialGas::Impl {
     st.density = p / (gas_constant * T);
     st.molar_mass = molar_mass;
     st.compressibility = 1.0;
+    st.expansivity = 1.0 / T;
     return st;
   }
 

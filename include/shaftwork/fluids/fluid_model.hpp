@@ -16,6 +16,12 @@
 
 namespace shaftwork::fluids {
 
+// Saturated liquid and vapour at one pressure (wet states of quality 0 and 1).
+struct Saturated {
+  State liquid;
+  State vapour;
+};
+
 class FluidModel {
  public:
   virtual ~FluidModel() = default;
@@ -50,6 +56,9 @@ class FluidModel {
   // Wet state at pressure p [Pa] and vapour mass fraction `quality` in [0, 1].
   // Single-phase models throw not_available.
   virtual State from_p_quality(double p, double quality) const;
+  // The saturated liquid and vapour at p: from_p_quality(p, 0) and from_p_quality(p, 1),
+  // with the same range and errors. A model that finds both at once overrides it.
+  virtual Saturated saturated(double p) const { return {from_p_quality(p, 0.0), from_p_quality(p, 1.0)}; }
 
   // True when density does not depend on state (incompressible liquid): the
   // polytropic efficiency then equals the isentropic one.
