@@ -28,20 +28,26 @@ void dense_solve(std::array<std::array<double, n>, n>& matrix,
     if (!(std::fabs(matrix[pivot][k]) > 0) || !std::isfinite(matrix[pivot][k])) {
       throw Error(ErrorKind::no_convergence, std::string(what) + ": singular linear system");
     }
-    std::swap(matrix[k], matrix[pivot]);
-    std::swap(rhs[k], rhs[pivot]);
+    if (pivot != k) {
+      std::swap(matrix[k], matrix[pivot]);
+      std::swap(rhs[k], rhs[pivot]);
+    }
+    const double inverse = 1.0 / matrix[k][k];
+    const double* row_k = matrix[k].data();
     for (std::size_t i = k + 1; i < n; ++i) {
-      const double factor = matrix[i][k] / matrix[k][k];
+      double* row_i = matrix[i].data();
+      const double factor = row_i[k] * inverse;
       if (factor == 0) continue;
-      for (std::size_t j = k; j < n; ++j) matrix[i][j] -= factor * matrix[k][j];
+      for (std::size_t j = k + 1; j < n; ++j) row_i[j] -= factor * row_k[j];
       for (std::size_t c = 0; c < columns; ++c) rhs[i][c] -= factor * rhs[k][c];
     }
   }
   for (std::size_t k = n; k-- > 0;) {
+    const double inverse = 1.0 / matrix[k][k];
     for (std::size_t c = 0; c < columns; ++c) {
       double sum = rhs[k][c];
       for (std::size_t j = k + 1; j < n; ++j) sum -= matrix[k][j] * rhs[j][c];
-      rhs[k][c] = sum / matrix[k][k];
+      rhs[k][c] = sum * inverse;
     }
   }
 }
