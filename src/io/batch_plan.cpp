@@ -73,7 +73,7 @@ std::string unit_problem(std::string_view unit, Dimension d) {
 
 // The input column of a case key, or a refusal naming the column.
 InputColumn input_column(std::size_t i, const std::string& header, const InputSpec& spec, std::string_view unit,
-                         const std::function<void(const std::string&)>& fail) {
+                         const units::ParseContext& context, const std::function<void(const std::string&)>& fail) {
   InputColumn c;
   c.index = i;
   c.header = header;
@@ -94,9 +94,10 @@ InputColumn input_column(std::size_t i, const std::string& header, const InputSp
   const std::string problem = unit_problem(unit, c.dimension);
   if (!problem.empty()) fail(problem);
   const units::UnitInfo& u = *units::find_unit(unit);
-  c.scale = u.scale;
+  c.scale = units::effective_scale(u, context);  // a standard volume at the template's site conditions
   c.offset = u.offset;
   c.gauge = u.gauge;
+  c.vacuum = u.vacuum();
   c.factor = c.dimension == Dimension::length ? units::kStandardGravity : 1.0;
   if (spec.input == Input::barometric_pressure) {  // a gauge barometer is refused
     const std::string gauge = given_value_problem(spec.input, units::kStandardAtmosphere, unit);
@@ -144,7 +145,8 @@ std::string_view nearest_key(std::string_view key) {
   return best;
 }
 
-void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_name) {
+void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_name,
+                 const units::ParseContext& context) {
   const std::vector<std::string>& header = plan.header;
   std::vector<std::pair<const InputSpec*, std::size_t>> seen;  // the case value of each column
   for (std::size_t i = 0; i < header.size(); ++i) {
@@ -174,6 +176,9 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
                                          near.empty() ? "" : fmt::format(" (did you mean {}?)", near)));
       continue;
     }
+    if (!spec->field && spec->input != Input::barometric_pressure) {
+      fail(fmt::format("{} comes from the template (--case): it is the same for every row", spec->key));
+    }
     if (cell.brackets_malformed) fail("write the unit in square brackets after the key, as in \"inlet.pressure [barg]\"");
     for (const auto& [other_spec, other] : seen) {
       if (other_spec == spec || (spec->gives && other_spec->gives == spec->gives)) {
@@ -182,7 +187,7 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
       }
     }
     seen.emplace_back(spec, i);
-    InputColumn c = input_column(i, header[i], *spec, cell.unit, fail);
+    InputColumn c = input_column(i, header[i], *spec, cell.unit, context, fail);
     if (c.input == Input::barometric_pressure) plan.has_barometer_column = true;
     plan.inputs.push_back(std::move(c));
   }
@@ -270,7 +275,7 @@ Plan make_plan(std::vector<std::string> header, std::size_t header_line, const s
                const BatchTemplate& templ, const BatchOptions& options) {
   Plan plan;
   plan.header = std::move(header);
-  plan_inputs(plan, header_line, points_name);
+  plan_inputs(plan, header_line, points_name, templ.input.context());
   plan_outputs(plan, templ, options);
   return plan;
 }

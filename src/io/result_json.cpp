@@ -61,6 +61,7 @@ ordered_json result_json(const CaseOutcome& o) {
   j["model"] = r.model;
   j["solved_for"] = r.solved_for.keys();
   if (o.input) j["given"] = given_json(*o.input);
+  if (o.input && !o.input->standard_reference.empty()) j["standard_reference"] = o.input->standard_reference;
   for (const ResultKey& k : result_keys()) {
     const std::optional<double> v = k.value(r);
     if (!v) continue;

@@ -63,7 +63,9 @@ class CaseTable {
     const GivenValue* given_form = nullptr;
     for (const GivenValue& g : given()) {
       if (machines::spec(g.input).gives != q) continue;
-      row(machines::spec(g.input).label, g.written, "given");
+      const bool standard = g.input == Input::standard_volume_flow && !in()->standard_reference.empty();
+      row(machines::spec(g.input).label, g.written,
+          standard ? fmt::format("given, at {}", in()->standard_reference) : std::string("given"));
       given_form = &g;
       // A redundant efficiency's result is the one from the states: shown beside it.
       if (!(q == Quantity::efficiency && r_.efficiency_check)) mark(machines::key_of(g.input));

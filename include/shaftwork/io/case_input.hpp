@@ -41,12 +41,16 @@ struct CaseInput {
   std::shared_ptr<const fluids::FluidModel> fluid;
   std::string fluid_label;  // the fluid's name, or a short readable description
   std::vector<GivenValue> given;  // in the order of machines::kInputs
+  std::string standard_reference;  // a standard volume flow's reference, in words ("" without one)
   std::vector<std::string> warnings;
 
   // The given value of `input`, or nullptr.
   const GivenValue* find(machines::Input input) const;
   // The site barometer [Pa]: given, or one standard atmosphere.
   double barometer() const;
+  // What other values are read against: the barometer (when given) and the site's
+  // standard conditions (when given).
+  units::ParseContext context() const;
   // The unit the user wrote for some given value of dimension `d` ("" if none): results
   // of that dimension are shown in it.
   std::string unit_used_for(units::Dimension d) const;
