@@ -226,9 +226,14 @@ CaseInput read_case(const json& c, size_t index, FluidFactory& fluids, const std
   out.machine = read_machine(c, out.machine_written);
   const std::string fluid(kFluidKey);
   if (!c.contains(fluid)) refuse("fluid: missing; give a fluid name (shaftwork fluids lists them) or object");
-  out.fluid = fluids.make(c[fluid], fluid, out.warnings);
-  out.fluid_label = fluids.label(c[fluid], *out.fluid);
   read_values(c, out);
+  // A moist gas takes its water content at the inlet state.
+  const GivenValue* p1 = out.find(Input::inlet_pressure);
+  const GivenValue* T1 = out.find(Input::inlet_temperature);
+  const FluidSite site{p1 ? std::optional<double>(p1->si) : std::nullopt,
+                       T1 ? std::optional<double>(T1->si) : std::nullopt};
+  out.fluid = fluids.make(c[fluid], fluid, out.warnings, site);
+  out.fluid_label = fluids.label(c[fluid], *out.fluid);
   if (const std::string problem = machines::input_problem(to_rating_input(out)); !problem.empty()) refuse(problem);
   return out;
 }

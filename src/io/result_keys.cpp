@@ -91,6 +91,8 @@ std::vector<ResultKey> make_rows() {
        "hydraulic power", sig(5), S::derived, batch, Applies::pump},
       {"pump_efficiency", Dimension::fraction, [](R r) -> O { return r.pump_efficiency; }, std::nullopt,
        "pump efficiency", dec(4), S::derived, batch, Applies::pump},
+      {"humidity_ratio", Dimension::fraction, [](R r) -> O { return r.humidity_ratio; }, std::nullopt,
+       "humidity ratio, kg/kg", dec(5), S::derived, not_in_batch},
       {"power_balance.fluid_power", Dimension::power,
        [](R r) -> O { return r.power_balance ? O(r.power_balance->fluid_power) : std::nullopt; }, std::nullopt,
        "fluid power", sig(5), S::hidden, not_in_batch},

@@ -244,6 +244,12 @@ void add_warnings(const Problem& problem, const Endpoints& e, Rating& r) {
                                      "effects are not modelled and can move efficiency and power by several percent",
                                      problem.fluid.model_name(), problem.show(Q::outlet_pressure, p_max)));
   }
+  if (const auto dew = problem.fluid.dew_point(r.outlet.pressure); dew && r.outlet.temperature < *dew) {
+    r.warnings.push_back(fmt::format("the outlet temperature {} lies below the dew point {} of the gas's water vapour: "
+                                     "water would condense, which the model does not describe",
+                                     problem.show(Q::outlet_temperature, r.outlet.temperature),
+                                     problem.show(Q::outlet_temperature, *dew)));
+  }
   if (r.power_balance && std::fabs(r.power_balance->difference_percent) > kPowerBalanceWarningPercent) {
     r.warnings.push_back(fmt::format("the shaft power from the fluid side and the given power differ by {:+.1f} %: "
                                      "check the flow, the temperatures and the power reading",
@@ -298,6 +304,7 @@ Rating rate(const RatingInput& input) {
   r.model = problem.fluid.model_name();
   r.mechanical_efficiency = input.eta_m();
   r.solved_for = unknown;
+  r.humidity_ratio = problem.fluid.humidity_ratio();
   r.inlet = e.inlet;
   r.outlet = e.outlet;
   r.pressure_ratio = problem.compression ? e.outlet.pressure / e.inlet.pressure : e.inlet.pressure / e.outlet.pressure;

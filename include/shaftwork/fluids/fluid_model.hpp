@@ -51,6 +51,13 @@ class FluidModel {
   // Single-phase models throw not_available.
   virtual State from_p_quality(double p, double quality) const;
 
+  // Moist gases (humid air): the humidity ratio [kg water / kg dry gas] the model was
+  // made with, and the dew point [K] of its water vapour at pressure p [Pa]; the model
+  // keeps the water as vapour below it, so a state there is worth a warning. Empty for
+  // every other model.
+  virtual std::optional<double> humidity_ratio() const { return std::nullopt; }
+  virtual std::optional<double> dew_point(double /*p*/) const { return std::nullopt; }
+
   // True when density does not depend on state (incompressible liquid): the
   // polytropic efficiency then equals the isentropic one.
   virtual bool is_incompressible() const { return false; }

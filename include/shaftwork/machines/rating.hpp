@@ -98,6 +98,8 @@ struct Rating {
   std::optional<double> head_height;      // m, (p2 - p1) / (rho1 g)
   std::optional<double> hydraulic_power;  // W, rho g Q H = m (p2 - p1) / rho1
   std::optional<double> pump_efficiency;  // hydraulic over shaft power
+  // Moist gases: the humidity ratio the fluid was made with, kg water per kg dry gas.
+  std::optional<double> humidity_ratio;
   std::optional<PowerBalance> power_balance;
   std::optional<EfficiencyCheck> efficiency_check;
   std::vector<std::string> warnings;
