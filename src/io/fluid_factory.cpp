@@ -83,6 +83,15 @@ const std::vector<NamedFluid>& named_fluids() {
   return fluids;
 }
 
+std::vector<FluidModelInfo> fluid_models() {
+  std::vector<FluidModelInfo> out;
+  for (const detail::ModelEntry& m : detail::models()) {
+    out.push_back({std::string(m.name), std::vector<std::string>(m.keys.begin(), m.keys.end()),
+                   std::string(m.summary)});
+  }
+  return out;
+}
+
 FluidFactory::FluidFactory()
     : species_(std::make_shared<fluids::SpeciesLibrary>(fluids::SpeciesLibrary::built_in())) {}
 

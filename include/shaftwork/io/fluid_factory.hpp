@@ -26,6 +26,15 @@ struct NamedFluid {
   std::string note;           // the comment lines just above it in data/fluids.txt
 };
 
+// A model a fluid object may name: its name, the keys of its object and one line on it.
+struct FluidModelInfo {
+  std::string name;
+  std::vector<std::string> keys;  // "model" first
+  std::string summary;
+};
+// Every model, in the order listings show them.
+std::vector<FluidModelInfo> fluid_models();
+
 // The named fluids of data/fluids.txt, in file order. Throws bad_input if the
 // embedded file is malformed (a build defect, caught by the tests).
 const std::vector<NamedFluid>& named_fluids();
