@@ -224,6 +224,7 @@ std::vector<const ResultKey*> default_outputs(const Plan& plan, const BatchTempl
   for (const ResultKey& k : result_keys()) {
     if (!k.in_batch || column_gives(plan, k.key)) continue;
     if ((k.applies == Applies::two_phase && !two_phase) || (k.applies == Applies::pump && !pump)) continue;
+    if (k.applies == Applies::real_gas && templ.input.fluid->fluid_kind() != fluids::FluidKind::real_gas) continue;
     if (k.key.rfind("power_balance.", 0) == 0 && !(flow && power)) continue;
     if (k.key.rfind("efficiency_check.", 0) == 0 && !efficiency) continue;
     out.push_back(&k);

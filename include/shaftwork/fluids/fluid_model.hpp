@@ -16,6 +16,16 @@
 
 namespace shaftwork::fluids {
 
+// What a model describes; the machine layer chooses its methods by it (the polytropic
+// path exact from s°(T) for an ideal gas, stepwise otherwise; Schultz and compressibility
+// reported for a real gas; eta_p = eta_s for a liquid).
+enum class FluidKind {
+  ideal_gas,    // p v = R T, h = h(T): constant cp, NASA polynomials, humid air
+  real_gas,     // one gas phase of an equation of state: the cubic models
+  water_steam,  // a liquid, a vapour and the wet region between: IAPWS-IF97
+  liquid,       // density independent of the state: incompressible
+};
+
 class FluidModel {
  public:
   virtual ~FluidModel() = default;
@@ -27,6 +37,13 @@ class FluidModel {
   virtual State from_ph(double p, double h) const = 0;
   // State at pressure p [Pa] and specific entropy s [J/(kg K)]; T converges to 1e-10 relative.
   virtual State from_ps(double p, double s) const = 0;
+
+  virtual FluidKind fluid_kind() const = 0;
+
+  // For ideal-gas models of a known composition: an estimate of the compressibility factor
+  // Z the real gas has at (p, T) (fluids/compressibility_estimate.hpp), so that a rating
+  // can warn where the ideal gas is off. Empty for other models and unknown compositions.
+  virtual std::optional<double> estimated_compressibility(double /*p*/, double /*T*/) const { return std::nullopt; }
 
   // The model's name as case files write it: "constant-cp", "nasa-polynomial",
   // "iapws-if97", "incompressible".

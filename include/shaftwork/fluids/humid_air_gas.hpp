@@ -26,12 +26,16 @@ class HumidAirGas final : public FluidModel {
   State from_ph(double p, double h) const override { return gas_->from_ph(p, h); }
   State from_ps(double p, double s) const override { return gas_->from_ps(p, s); }
   std::string model_name() const override { return "humid-air"; }
+  FluidKind fluid_kind() const override { return FluidKind::ideal_gas; }
   // "humid air, humidity ratio 0.01234 kg/kg (60 % relative humidity at 308.15 K, 100 kPa)"
   std::string description() const override { return description_; }
   Range temperature_range() const override { return gas_->temperature_range(); }
   Range pressure_range() const override { return gas_->pressure_range(); }
   std::optional<double> ideal_gas_constant() const override { return gas_->ideal_gas_constant(); }
   std::optional<double> humidity_ratio() const override { return humidity_ratio_; }
+  std::optional<double> estimated_compressibility(double p, double T) const override {
+    return gas_->estimated_compressibility(p, T);
+  }
   // The dew point of the water vapour at total pressure p: water_dew_point(y_w p).
   std::optional<double> dew_point(double p) const override;
 

@@ -38,6 +38,7 @@ enum class Applies {
   always,
   two_phase,  // fluids with a liquid and a vapour phase: qualities
   pump,       // pumps: head as a height, hydraulic power
+  real_gas,   // real-gas models: compressibility, the Schultz method
 };
 
 struct ResultKey {
