@@ -66,10 +66,13 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     }
   }
   std::ostringstream json, table_si, table_us, csv;
-  shaftwork::io::write_json(json, outcomes);
-  shaftwork::io::write_table(table_si, outcomes, shaftwork::io::UnitSystem::si);
-  shaftwork::io::write_table(table_us, outcomes, shaftwork::io::UnitSystem::us);
-  shaftwork::io::write_csv(csv, outcomes, shaftwork::io::UnitSystem::si);
+  shaftwork::io::write_results(json, shaftwork::io::ResultFormat::json, outcomes);
+  shaftwork::io::write_results(table_si, shaftwork::io::ResultFormat::table, outcomes);
+  shaftwork::io::TableOptions us;
+  us.system = shaftwork::io::UnitSystem::us;
+  us.system_forced = true;
+  shaftwork::io::write_results(table_us, shaftwork::io::ResultFormat::table, outcomes, us);
+  shaftwork::io::write_results(csv, shaftwork::io::ResultFormat::csv, outcomes);
   FUZZ_REQUIRE(!json.str().empty());
   return 0;
 }

@@ -21,36 +21,35 @@ std::string csv_field(std::string_view text) {
   return quoted + '"';
 }
 
-void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, UnitSystem system) {
-  out << "id,file,status,error,machine,fluid,model,solved_for";
+std::string csv_header(UnitSystem system) {
+  std::string out = "id,file,status,error,machine,fluid,model,solved_for";
   for (const ResultKey& k : result_keys()) {
     const std::string_view unit = column_unit(k.dimension, system);
-    out << ',' << csv_field(unit.empty() ? std::string(k.key) : fmt::format("{} [{}]", k.key, unit));
+    out += ',' + csv_field(unit.empty() ? std::string(k.key) : fmt::format("{} [{}]", k.key, unit));
   }
-  out << ",warnings\r\n";
+  return out + ",warnings\r\n";
+}
+
+std::string csv_row(const CaseOutcome& o, UnitSystem system) {
   constexpr int kDigits = 10;
-  for (const auto& o : outcomes) {
-    out << csv_field(o.id) << ',' << csv_field(o.origin) << ',' << (o.ok() ? "ok" : "error") << ','
-        << csv_field(o.error) << ',';
-    if (o.ok()) {
-      const machines::Rating& r = *o.rating;
-      out << csv_field(o.input ? o.input->machine_written : machines::machine_name(r.machine)) << ','
-          << csv_field(o.input ? o.input->fluid_label : "") << ',' << r.model << ',' << r.solved_for.joined(" ");
-      for (const ResultKey& k : result_keys()) {
-        out << ',';
-        const std::optional<double> v = k.value(r);
-        if (!v || !std::isfinite(*v)) continue;
-        const std::string_view unit = column_unit(k.dimension, system);
-        std::string text;
-        append_significant(text, unit.empty() ? *v : units::from_si(*v, unit, k.dimension), kDigits);
-        out << text;
-      }
-    } else {
-      out << ",,,";
-      for (std::size_t i = 0; i < result_keys().size(); ++i) out << ',';
+  std::string out = fmt::format("{},{},{},{},", csv_field(o.id), csv_field(o.origin), o.ok() ? "ok" : "error",
+                                csv_field(o.error));
+  if (o.ok()) {
+    const machines::Rating& r = *o.rating;
+    out += fmt::format("{},{},{},{}", csv_field(o.input ? o.input->machine_written : machines::machine_name(r.machine)),
+                       csv_field(o.input ? o.input->fluid_label : ""), r.model, r.solved_for.joined(" "));
+    for (const ResultKey& k : result_keys()) {
+      out += ',';
+      const std::optional<double> v = k.value(r);
+      if (!v || !std::isfinite(*v)) continue;
+      const std::string_view unit = column_unit(k.dimension, system);
+      append_significant(out, unit.empty() ? *v : units::from_si(*v, unit, k.dimension), kDigits);
     }
-    out << ',' << csv_field(fmt::format("{}", fmt::join(o.warnings, "; "))) << "\r\n";
+  } else {
+    out += ",,,";
+    out.append(result_keys().size(), ',');
   }
+  return out + ',' + csv_field(fmt::format("{}", fmt::join(o.warnings, "; "))) + "\r\n";
 }
 
 }  // namespace shaftwork::io

@@ -78,11 +78,4 @@ ordered_json result_json(const CaseOutcome& o) {
   return j;
 }
 
-void write_json(std::ostream& out, const std::vector<CaseOutcome>& outcomes) {
-  ordered_json doc;
-  doc["results"] = ordered_json::array();
-  for (const auto& o : outcomes) doc["results"].push_back(result_json(o));
-  out << doc.dump(2, ' ', false, ordered_json::error_handler_t::replace) << '\n';
-}
-
 }  // namespace shaftwork::io

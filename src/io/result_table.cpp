@@ -143,20 +143,15 @@ class CaseTable {
 
 }  // namespace
 
-void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, const TableOptions& options) {
-  bool first = true;
-  for (const auto& o : outcomes) {
-    if (!first) out << '\n';
-    first = false;
-    if (!o.ok()) {
-      out << escape_control(o.id) << '\n';
-      if (options.show_origin && !o.origin.empty()) out << escape_control(fmt::format("  from {}", o.origin)) << '\n';
-      out << "  could not be rated: " << escape_control(o.error) << '\n';
-      for (const auto& w : o.warnings) out << "  warning: " << escape_control(w) << '\n';
-      continue;
-    }
+void write_case_table(std::ostream& out, const CaseOutcome& o, const TableOptions& options) {
+  if (o.ok()) {
     CaseTable(out, o, options).write(options.show_origin);
+    return;
   }
+  out << escape_control(o.id) << '\n';
+  if (options.show_origin && !o.origin.empty()) out << escape_control(fmt::format("  from {}", o.origin)) << '\n';
+  out << "  could not be rated: " << escape_control(o.error) << '\n';
+  for (const auto& w : o.warnings) out << "  warning: " << escape_control(w) << '\n';
 }
 
 }  // namespace shaftwork::io
