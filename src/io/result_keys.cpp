@@ -2,6 +2,10 @@
 
 #include <string>
 
+#include <fmt/format.h>
+
+#include "shaftwork/text.hpp"
+
 namespace shaftwork::io {
 
 using machines::Input;
@@ -133,6 +137,14 @@ std::string result_key_list() {
     out += k.key;
   }
   return out;
+}
+
+std::string no_result_key(std::string_view key) {
+  std::vector<std::string_view> keys;
+  for (const ResultKey& k : result_keys()) keys.push_back(k.key);
+  const std::string_view near = nearest_of(key, keys);
+  if (!near.empty()) return fmt::format("\"{}\" is no result key; did you mean {}?", key, near);
+  return fmt::format("\"{}\" is no result key; the keys are: {}", key, result_key_list());
 }
 
 }  // namespace shaftwork::io

@@ -10,6 +10,7 @@
 #pragma once
 
 #include <optional>
+#include <string>
 #include <string_view>
 #include <vector>
 
@@ -58,5 +59,8 @@ const std::vector<ResultKey>& result_keys();
 const ResultKey* find_result_key(std::string_view key);
 // Every key, comma-separated, for messages.
 std::string result_key_list();
+// The message for a key that is none: "\"efficiency.isentropc\" is no result key; did you
+// mean efficiency.isentropic?", or with no key near it "...; the keys are: " and the list.
+std::string no_result_key(std::string_view key);
 
 }  // namespace shaftwork::io
