@@ -157,8 +157,7 @@ bool prepare(const CheckOptions& options, CheckRun& run) {
     run.compare = {options.rtol, options.ignore};
     for (const auto& path : options.species_files) run.fluids.add_species_file(path);
     if (!options.baseline.empty()) {
-      run.baseline.emplace(io::parse_json_strict(io::read_text_file(options.baseline), options.baseline),
-                           options.baseline);
+      run.baseline.emplace(io::read_text_file(options.baseline), options.baseline);
     }
   } catch (const Error& e) {
     std::cerr << "error: " << e.what() << '\n';
@@ -223,7 +222,7 @@ int run_check(const CheckOptions& options) {
   for (const CaseFile& file : files) check_file(file, run);
   if (run.baseline) {
     std::ostringstream lines;
-    for (const nlohmann::json* recorded : run.baseline->untaken()) {
+    for (const io::RecordedResult* recorded : run.baseline->untaken()) {
       run.checks.push_back(io::missing_case(*recorded));
       io::write_check_lines(lines, run.checks.back());
     }

@@ -1,6 +1,7 @@
 #include "shaftwork/io/case_check.hpp"
 
 #include <algorithm>
+#include <cmath>
 
 #include <fmt/format.h>
 
@@ -12,27 +13,21 @@ namespace shaftwork::io {
 namespace {
 
 using nlohmann::json;
-using nlohmann::ordered_json;
-
-std::string string_or_empty(const json& j, const char* key) {
-  const auto found = j.find(key);
-  return found != j.end() && found->is_string() ? found->get<std::string>() : std::string();
-}
 
 // The problems of a rated case: its expectations, then its baseline.
-std::vector<std::string> problems_of(const CaseOutcome& o, const ordered_json& result, const json& case_object,
-                                     const Baseline* baseline, const json* recorded, const CompareOptions& options) {
+std::vector<std::string> problems_of(const CaseOutcome& o, const ResultNumbers& now, const json& case_object,
+                                     const Baseline* baseline, const RecordedResult* recorded,
+                                     const CompareOptions& options) {
   const double barometer = o.input ? o.input->barometer() : units::kStandardAtmosphere;
   const std::vector<Expectation> expectations = read_expectations(case_object, barometer);
-  std::vector<MovedKey> moved = compare_expectations(result, expectations, options.rtol);
+  std::vector<MovedKey> moved = compare_expectations(now, expectations, options.rtol);
   std::vector<std::string> problems;
   if (baseline != nullptr && recorded == nullptr) {
     problems.emplace_back("not in the baseline (record it with --record once the case is reviewed)");
-  } else if (recorded != nullptr && string_or_empty(*recorded, "status") != "ok") {
-    problems.push_back(fmt::format("the baseline records this case as failed (\"{}\"); it rates now",
-                                   string_or_empty(*recorded, "error")));
+  } else if (recorded != nullptr && recorded->status != "ok") {
+    problems.push_back(fmt::format("the baseline records this case as failed (\"{}\"); it rates now", recorded->error));
   } else if (recorded != nullptr) {
-    const auto more = compare_with_baseline(result, *recorded, expectations, options);
+    const auto more = compare_with_baseline(now, *recorded, expectations, options);
     moved.insert(moved.end(), more.begin(), more.end());
   }
   for (const MovedKey& m : moved) problems.push_back(describe(m));
@@ -52,16 +47,16 @@ CaseCheck check_case(const CaseOutcome& o, const json& case_object, Baseline* ba
   CaseCheck check;
   check.file = o.origin;
   check.id = o.id;
-  const json* recorded = baseline != nullptr ? baseline->take(o.origin, o.id) : nullptr;
-  ordered_json result;
-  if (o.ok()) result = result_json(o);  // the result as `rate --format json` prints it
-  if (!o.ok() || result["status"] != "ok") {
+  const RecordedResult* recorded = baseline != nullptr ? baseline->take(o.origin, o.id) : nullptr;
+  const ResultNumbers now = o.ok() ? result_numbers(*o.rating) : ResultNumbers();
+  const bool finite = std::all_of(now.begin(), now.end(), [](const auto& v) { return !v || std::isfinite(*v); });
+  if (!o.ok() || !finite) {
     check.verdict = Verdict::error;
-    check.details.push_back(o.ok() ? result["error"].get<std::string>() : o.error);
+    check.details.push_back(o.ok() ? result_json(o)["error"].get<std::string>() : o.error);  // names the key
     return check;
   }
   try {
-    check.details = problems_of(o, result, case_object, baseline, recorded, options);
+    check.details = problems_of(o, now, case_object, baseline, recorded, options);
   } catch (const Error& e) {
     check.verdict = Verdict::error;
     check.details = {e.what()};
@@ -71,11 +66,11 @@ CaseCheck check_case(const CaseOutcome& o, const json& case_object, Baseline* ba
   return check;
 }
 
-CaseCheck missing_case(const json& recorded) {
+CaseCheck missing_case(const RecordedResult& recorded) {
   CaseCheck check;
   check.verdict = Verdict::missing;
-  check.file = normal_file_name(string_or_empty(recorded, "file"));
-  check.id = string_or_empty(recorded, "id");
+  check.file = recorded.file;
+  check.id = recorded.id;
   check.details.emplace_back("in the baseline, not among the cases checked");
   return check;
 }

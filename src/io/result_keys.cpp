@@ -1,9 +1,11 @@
 #include "shaftwork/io/result_keys.hpp"
 
+#include <cmath>
 #include <string>
 
 #include <fmt/format.h>
 
+#include "shaftwork/io/number_format.hpp"
 #include "shaftwork/text.hpp"
 
 namespace shaftwork::io {
@@ -121,6 +123,18 @@ std::vector<ResultKey> make_rows() {
 const std::vector<ResultKey>& result_keys() {
   static const std::vector<ResultKey> rows = make_rows();
   return rows;
+}
+
+std::size_t row_of(const ResultKey& k) { return static_cast<std::size_t>(&k - result_keys().data()); }
+
+ResultNumbers result_numbers(const Rating& rating) {
+  ResultNumbers numbers;
+  numbers.reserve(result_keys().size());
+  for (const ResultKey& k : result_keys()) {
+    const std::optional<double> v = k.value(rating);
+    numbers.push_back(v && std::isfinite(*v) ? rounded_for_output(*v) : v);
+  }
+  return numbers;
 }
 
 const ResultKey* find_result_key(std::string_view key) {

@@ -15,14 +15,29 @@
 
 using namespace shaftwork;
 using nlohmann::json;
-using nlohmann::ordered_json;
 
 namespace {
 
-// A result as result_json writes one, cut down to a few keys.
-ordered_json result_now() {
-  return ordered_json::parse(R"({"id": "R", "status": "ok", "outlet": {"temperature": 423.15, "pressure": 300000.0},
-      "power": 135000.0, "efficiency": {"isentropic": 0.8, "polytropic": 0.83}, "warnings": []})");
+// The numbers of a result: these keys set, every other row empty.
+io::ResultNumbers numbers(const std::vector<std::pair<std::string, double>>& set) {
+  io::ResultNumbers out(io::result_keys().size());
+  for (const auto& [key, value] : set) out[io::row_of(*io::find_result_key(key))] = value;
+  return out;
+}
+
+// A result cut down to a few keys.
+io::ResultNumbers result_now() {
+  return numbers({{"outlet.temperature", 423.15}, {"outlet.pressure", 300000.0}, {"power", 135000.0},
+                  {"efficiency.isentropic", 0.8}, {"efficiency.polytropic", 0.83}});
+}
+
+io::RecordedResult recorded_as(const io::ResultNumbers& n) {
+  io::RecordedResult r;
+  r.file = "cases/t.json";
+  r.id = "R";
+  r.status = "ok";
+  r.numbers = n;
+  return r;
 }
 
 std::vector<io::Expectation> expect(const std::string& block) {
@@ -41,20 +56,41 @@ std::string report(const io::CaseCheck& c) {
   return out.str();
 }
 
+std::string refusal(const std::string& text) {
+  try {
+    io::Baseline(text, "base.json");
+  } catch (const Error& e) {
+    return e.what();
+  }
+  return "";
+}
+
 }  // namespace
 
-TEST_CASE("number_at follows a dotted key") {
-  const ordered_json r = result_now();
-  CHECK(io::number_at(r, "outlet.temperature") == 423.15);
-  CHECK(io::number_at(r, "power") == 135000.0);
-  CHECK_FALSE(io::number_at(r, "mass_flow"));
-  CHECK_FALSE(io::number_at(r, "outlet.density"));
-  CHECK_FALSE(io::number_at(r, "power.shaft"));  // power is a number, not an object
-  CHECK_FALSE(io::number_at(r, "id"));           // not a number
+TEST_CASE("the numbers of a rating are those rate --format json writes") {
+  const json c = json::parse(R"({"id": "N", "machine": "compressor", "fluid": "air",
+      "inlet": {"pressure": "1 bar", "temperature": "20 degC"}, "outlet": {"pressure": "3 bar"},
+      "efficiency": 0.8, "mass_flow": "1 kg/s"})");
+  io::FluidFactory fluids;
+  const io::CaseOutcome o = io::rate_document(c, "n.json", fluids).front();
+  REQUIRE(o.ok());
+  const io::ResultNumbers n = io::result_numbers(*o.rating);
+  // Through the JSON text and back, as a baseline is read.
+  const io::Baseline b(R"({"results": [)" + io::result_json(o).dump() + "]}", "b.json");
+  const io::RecordedResult* r = b.untaken().at(0);
+  std::size_t present = 0;
+  for (const io::ResultKey& k : io::result_keys()) {
+    CHECK(n[io::row_of(k)] == r->numbers[io::row_of(k)]);
+    present += n[io::row_of(k)].has_value();
+  }
+  CHECK(present > 20);  // the states, flow, power, efficiencies, heads...
+  CHECK(n[io::row_of(*io::find_result_key("mass_flow"))] == 1.0);
+  CHECK_FALSE(n[io::row_of(*io::find_result_key("head_height"))]);  // pumps only
+  CHECK(r->unknown.empty());
 }
 
 TEST_CASE("expectations: a value outside its tolerance moves, with now, expected and the difference") {
-  const ordered_json r = result_now();
+  const io::ResultNumbers r = result_now();
   // 423.15 K = 150 degC; 150.04 degC is 0.04 K away, within 0.09 degF (0.05 K).
   CHECK(io::compare_expectations(r, expect(R"({"outlet.temperature": {"value": "150.04 degC", "tolerance": "0.09 degF"}})"), 1e-6)
             .empty());
@@ -83,13 +119,14 @@ TEST_CASE("expectations: a key the result lacks is an error naming it") {
 }
 
 TEST_CASE("baseline: every numeric key at --rtol, an expectation's tolerance winning for its key") {
-  const ordered_json now = result_now();
-  json recorded = json::parse(now.dump());
+  const io::ResultNumbers now = result_now();
   io::CompareOptions options;
-  CHECK(io::compare_with_baseline(now, recorded, {}, options).empty());
+  CHECK(io::compare_with_baseline(now, recorded_as(now), {}, options).empty());
 
-  recorded["outlet"]["temperature"] = 423.1;
-  recorded["power"] = 135000.1;  // 7.4e-7 relative: within 1e-6
+  io::ResultNumbers was = now;
+  was[io::row_of(*io::find_result_key("outlet.temperature"))] = 423.1;
+  was[io::row_of(*io::find_result_key("power"))] = 135000.1;  // 7.4e-7 relative: within 1e-6
+  const io::RecordedResult recorded = recorded_as(was);
   CHECK(lines(io::compare_with_baseline(now, recorded, {}, options)) ==
         std::vector<std::string>{"outlet.temperature: now 423.15 K, expected 423.1 K (baseline), difference "
                                  "+0.05 K (+0.0118 %), allowed 1e-06 relative"});
@@ -107,12 +144,12 @@ TEST_CASE("baseline: every numeric key at --rtol, an expectation's tolerance win
 }
 
 TEST_CASE("baseline: a key on one side only moves, and so does a number under no result key") {
-  const ordered_json now = result_now();
-  json recorded = json::parse(now.dump());
-  recorded.erase("power");
-  recorded["mass_flow"] = 3.1;
-  recorded["head"]["isentropic_old"] = 120000.0;  // a key of another version
-  CHECK(lines(io::compare_with_baseline(now, recorded, {}, {})) ==
+  io::ResultNumbers was = result_now();
+  was[io::row_of(*io::find_result_key("power"))].reset();
+  was[io::row_of(*io::find_result_key("mass_flow"))] = 3.1;
+  io::RecordedResult recorded = recorded_as(was);
+  recorded.unknown = {{"head.isentropic_old", 120000.0}};  // a key of another version
+  CHECK(lines(io::compare_with_baseline(result_now(), recorded, {}, {})) ==
         std::vector<std::string>{"mass_flow: absent now, expected 3.1 kg/s (baseline)",
                                  "power: now 135000 W, not in the baseline",
                                  "head.isentropic_old: absent now, expected 120000 (baseline)"});
@@ -126,44 +163,57 @@ TEST_CASE("file names are matched after resolving . and .. steps") {
 }
 
 TEST_CASE("a baseline hands each recorded result to one case, by file and id") {
-  io::Baseline b(json::parse(R"({"results": [
+  io::Baseline b(R"({"results": [
       {"id": "A", "file": "./cases/a.json", "status": "ok", "power": 1},
-      {"id": "A", "file": "cases/a.json", "status": "ok", "power": 2},
-      {"id": "B", "file": "cases/a.json", "status": "ok", "power": 3},
-      {"id": "A", "file": "cases/b.json", "status": "ok", "power": 4}]})"),
+      {"id": "A", "file": "cases/a.json", "status": "ok", "power": 2, "solved_for": ["power"], "warnings": []},
+      {"id": "B", "file": "cases/a.json", "status": "error", "error": "outlet.pressure: missing"},
+      {"id": "A", "file": "cases/b.json", "status": "ok", "outlet": {"temperature": 400, "colour": "red"},
+       "head": {"isentropic_old": 5e4}, "checks": [{"speed": 3000}]}], "test": {"verdict": "pass"}})",
                  "base.json");
-  const json* first = b.take("cases/a.json", "A");
+  const auto power = [](const io::RecordedResult* r) { return r->numbers[io::row_of(*io::find_result_key("power"))]; };
+  const io::RecordedResult* first = b.take("cases/a.json", "A");
   REQUIRE(first);
-  CHECK((*first)["power"] == 1);
-  const json* second = b.take("cases/a.json", "A");  // a repeated id takes the next, in order
+  CHECK(power(first) == 1.0);
+  const io::RecordedResult* second = b.take("cases/a.json", "A");  // a repeated id takes the next, in order
   REQUIRE(second);
-  CHECK((*second)["power"] == 2);
+  CHECK(power(second) == 2.0);
   CHECK(b.take("cases/a.json", "A") == nullptr);
   CHECK(b.take("cases/a.json", "C") == nullptr);
   const auto left = b.untaken();
   REQUIRE(left.size() == 2);
-  CHECK((*left[0])["id"] == "B");
-  CHECK((*left[1])["file"] == "cases/b.json");
+  CHECK(left[0]->id == "B");
+  CHECK(left[0]->status == "error");
+  CHECK(left[0]->error == "outlet.pressure: missing");
+  // Numbers inside objects by their dotted keys; text and numbers inside arrays are not compared.
+  CHECK(left[1]->file == "cases/b.json");
+  CHECK(left[1]->numbers[io::row_of(*io::find_result_key("outlet.temperature"))] == 400.0);
+  CHECK(left[1]->unknown == std::vector<std::pair<std::string, double>>{{"head.isentropic_old", 5e4}});
 }
 
 TEST_CASE("a baseline that is not a results file is refused") {
-  const auto refusal = [](const std::string& text) {
-    try {
-      io::Baseline(json::parse(text), "base.json");
-    } catch (const Error& e) {
-      return std::string(e.what());
-    }
-    return std::string();
-  };
-  CHECK(refusal(R"({"cases": []})") ==
-        "base.json: not a results file: expected {\"results\": [...]} as shaftwork rate --format json writes it "
-        "(record one with shaftwork check --record)");
+  const std::string tail = " (record one with shaftwork check --record)";
+  const std::string layout = "base.json: not a results file: expected {\"results\": [...]} as shaftwork rate --format json writes it" + tail;
+  CHECK(refusal(R"({"cases": []})") == layout);
+  CHECK(refusal(R"([])") == layout);
+  CHECK(refusal(R"({"results": {}})") == layout);
+  CHECK(refusal(R"({"results": [{"id": "A"}, 5]})") ==
+        "base.json: not a results file: results[1] is not a result object with a string \"id\"" + tail);
   CHECK(refusal(R"({"results": [{"id": "A"}, {"status": "ok"}]})") ==
-        "base.json: not a results file: results[1] is not a result object with a string \"id\" (record one with "
-        "shaftwork check --record)");
+        "base.json: not a results file: results[1] is not a result object with a string \"id\"" + tail);
+  CHECK(refusal(R"({"results": [{"id": 7}]})") ==
+        "base.json: not a results file: results[0] is not a result object with a string \"id\"" + tail);
   CHECK(refusal(R"({"results": [{"id": "A", "file": 3}]})") ==
-        "base.json: not a results file: results[0]: \"file\" is not a string (record one with shaftwork check "
-        "--record)");
+        "base.json: not a results file: results[0]: \"file\" is not a string" + tail);
+  CHECK(refusal(R"({"results": [{"id": "A", "power": 1, "power": 2}]})") ==
+        "base.json: not a results file: results[0]: the key \"power\" appears twice" + tail);
+  CHECK(refusal(R"({"results": [{"id": "A", "id": "B"}]})") ==
+        "base.json: not a results file: results[0]: the key \"id\" appears twice" + tail);
+  CHECK(refusal(R"({"results": [], "results": []})") ==
+        "base.json: not a results file: the key \"results\" appears twice" + tail);
+  // A syntax error is told as for every JSON input, with the line and column.
+  CHECK(refusal("{\"results\": [\n  {\"id\": \"A\",}\n]}") ==
+        "base.json: not valid JSON: parse error at line 2, column 14: syntax error while parsing object key - "
+        "unexpected '}'; expected string literal");
 }
 
 TEST_CASE("the verdict of a rated case and its report lines") {
@@ -186,14 +236,14 @@ TEST_CASE("the verdict of a rated case and its report lines") {
   // Against a baseline recorded from the same result, with the expectation met: passed.
   json passing = c;
   passing["expect"]["outlet.temperature"]["value"] = "150.04 degC";
-  io::Baseline same(json::parse(R"({"results": [)" + io::result_json(outcome).dump() + "]}"), "base.json");
+  io::Baseline same(R"({"results": [)" + io::result_json(outcome).dump() + "]}", "base.json");
   const io::CaseCheck passed = io::check_case(outcome, passing, &same, {});
   CHECK(passed.verdict == io::Verdict::passed);
   CHECK(report(passed) == "passed  cases/t.json: case \"T1\"\n");
   CHECK(same.untaken().empty());
 
   // A baseline without the case; then the recorded case nobody took.
-  io::Baseline other(json::parse(R"({"results": [{"id": "T9", "file": "cases/t.json", "status": "ok"}]})"), "b.json");
+  io::Baseline other(R"({"results": [{"id": "T9", "file": "cases/t.json", "status": "ok"}]})", "b.json");
   const io::CaseCheck unknown = io::check_case(outcome, passing, &other, {});
   CHECK(report(unknown) ==
         "failed  cases/t.json: case \"T1\"\n"

@@ -42,7 +42,7 @@ CaseCheck check_case(const CaseOutcome& outcome, const nlohmann::json& case_obje
                      const CompareOptions& options);
 
 // A recorded result that no case took.
-CaseCheck missing_case(const nlohmann::json& recorded);
+CaseCheck missing_case(const RecordedResult& recorded);
 
 // Writes a check's lines (each ending in a newline); text from files has its control
 // characters escaped:

@@ -1,10 +1,10 @@
 // shaftwork/io/result_compare.hpp — a result against its expectations and against a
 // recorded result (`shaftwork check`).
 //
-// Both sides are result objects as `rate --format json` writes them (result_json), so a
-// value compares as it is printed (15 significant digits). Keys and dimensions come from
-// result_keys(); a key moves when |now - expected| exceeds its tolerance (Tolerance::allows),
-// or when it is present on one side only.
+// Both sides are the numbers of a result by row of result_keys(), as `rate --format json`
+// writes them (15 significant digits): result_numbers() of a rating now, a RecordedResult
+// of the baseline. A key moves when |now - expected| exceeds its tolerance
+// (Tolerance::allows), or when it is present on one side only.
 #pragma once
 
 #include <optional>
@@ -12,9 +12,9 @@
 #include <string_view>
 #include <vector>
 
-#include <nlohmann/json.hpp>
-
+#include "shaftwork/io/baseline.hpp"
 #include "shaftwork/io/expectations.hpp"
+#include "shaftwork/io/result_keys.hpp"
 
 namespace shaftwork::io {
 
@@ -35,15 +35,11 @@ struct MovedKey {
 //   pump_efficiency: now 0.79, not in the baseline
 std::string describe(const MovedKey& moved);
 
-// The number at a dotted key of a result object, or nothing (absent, or not a number).
-std::optional<double> number_at(const nlohmann::ordered_json& result, std::string_view key);
-std::optional<double> number_at(const nlohmann::json& result, std::string_view key);
-
 // The expectations of a case against its result; an expectation without a tolerance is held
 // to `rtol` (relative). Throws bad_input when the result lacks an expected key:
 //   expect.mass_flow: the result of this case has no mass_flow
-std::vector<MovedKey> compare_expectations(const nlohmann::ordered_json& result,
-                                           const std::vector<Expectation>& expectations, double rtol);
+std::vector<MovedKey> compare_expectations(const ResultNumbers& now, const std::vector<Expectation>& expectations,
+                                           double rtol);
 
 struct CompareOptions {
   double rtol = 1e-6;                     // relative tolerance (check --rtol)
@@ -52,9 +48,9 @@ struct CompareOptions {
 
 // Every numeric key of a recorded result against the result now: the result keys either
 // side holds, at options.rtol unless an expectation of the case gives its own tolerance for
-// the key; a number the recorded result holds under a key that is no result key moves too
+// the key, and every number the recorded result holds under a key that is no result key
 // (a baseline from another version). Ignored keys are skipped.
-std::vector<MovedKey> compare_with_baseline(const nlohmann::ordered_json& result, const nlohmann::json& recorded,
+std::vector<MovedKey> compare_with_baseline(const ResultNumbers& now, const RecordedResult& recorded,
                                             const std::vector<Expectation>& expectations,
                                             const CompareOptions& options);
 
