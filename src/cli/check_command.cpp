@@ -2,6 +2,7 @@
 // --baseline, to its recorded result; report one line per case and "N passed, N failed"
 // (docs/check.md). Directories are searched for *.json case files.
 #include <algorithm>
+#include <cctype>
 #include <cmath>
 #include <filesystem>
 #include <iostream>
