@@ -1,7 +1,7 @@
 // Fuzz target: a case file from bytes to every output format, the path `shaftwork rate` takes:
 // io::parse_json_strict, io::rate_document, then the JSON, table (SI and US) and CSV writers;
 // and the path of `shaftwork check`: each case against its expect block, then JUnit XML,
-// which must hold no character that XML 1.0 forbids.
+// which must hold no character that XML 1.0 forbids; and the bytes read as a baseline.
 // A refusal (shaftwork::Error) is the expected answer to bad input; anything else that
 // escapes, a sanitizer report, or a rated case holding a non-finite number or an efficiency
 // outside (0, 1] is a finding.
@@ -16,6 +16,7 @@
 
 #include "fuzz_check.hpp"
 #include "shaftwork/error.hpp"
+#include "shaftwork/io/baseline.hpp"
 #include "shaftwork/io/case_check.hpp"
 #include "shaftwork/io/case_reader.hpp"
 #include "shaftwork/io/case_runner.hpp"
@@ -55,6 +56,13 @@ void require_sane(const shaftwork::machines::Rating& r) {
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
   const std::string_view text(reinterpret_cast<const char*>(data), size);
+  // The same bytes as a baseline of `check`: read, or refused naming the file.
+  try {
+    const shaftwork::io::Baseline baseline(text, "fuzz.json");
+    for (const auto* r : baseline.untaken()) FUZZ_REQUIRE(r->numbers.size() == shaftwork::io::result_keys().size());
+  } catch (const shaftwork::Error& e) {
+    FUZZ_REQUIRE(std::string_view(e.what()).rfind("fuzz.json: ", 0) == 0);
+  }
   // A fresh factory per input: no state carries over, so every finding replays alone.
   shaftwork::io::FluidFactory fluids;
   std::vector<shaftwork::io::CaseOutcome> outcomes;
