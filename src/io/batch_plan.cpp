@@ -122,27 +122,9 @@ std::string forms_of(const InputSpec& spec) {
 
 // The case key nearest to an unknown one, for a notice ("did you mean ...?").
 std::string_view nearest_key(std::string_view key) {
-  std::string_view best;
-  std::size_t best_distance = 3;  // suggest only keys at most two edits away
-  for (const InputSpec& s : machines::kInputs) {
-    // Levenshtein distance, one row at a time.
-    std::vector<std::size_t> row(s.key.size() + 1);
-    for (std::size_t j = 0; j < row.size(); ++j) row[j] = j;
-    for (std::size_t i = 1; i <= key.size(); ++i) {
-      std::size_t diagonal = row[0];
-      row[0] = i;
-      for (std::size_t j = 1; j <= s.key.size(); ++j) {
-        const std::size_t up = row[j];
-        row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + (key[i - 1] == s.key[j - 1] ? 0 : 1)});
-        diagonal = up;
-      }
-    }
-    if (row.back() < best_distance) {
-      best_distance = row.back();
-      best = s.key;
-    }
-  }
-  return best;
+  std::vector<std::string_view> keys;
+  for (const InputSpec& s : machines::kInputs) keys.push_back(s.key);
+  return nearest_of(key, keys);
 }
 
 void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_name,

@@ -19,7 +19,7 @@ using units::Dimension;
 [[noreturn]] void refuse(const std::string& message) { throw Error(ErrorKind::bad_input, message); }
 
 // Keys of a case that are not values of kInputs.
-constexpr std::string_view kOtherKeys[] = {kIdKey, kMachineKey, kFluidKey, kNoteKey};
+constexpr std::string_view kOtherKeys[] = {kIdKey, kMachineKey, kFluidKey, kNoteKey, kExpectKey};
 
 // The first segment of a dotted key ("inlet" of "inlet.pressure").
 std::string_view head_of(std::string_view key) { return key.substr(0, key.find('.')); }

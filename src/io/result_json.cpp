@@ -1,10 +1,10 @@
 // Results as the contract's JSON: one object per case, its numbers placed by the dotted
 // keys of result_keys().
 #include <cmath>
-#include <cstdlib>
 
 #include <fmt/format.h>
 
+#include "shaftwork/io/number_format.hpp"
 #include "shaftwork/io/result_keys.hpp"
 #include "shaftwork/io/result_writer.hpp"
 
@@ -13,14 +13,6 @@ namespace {
 
 using nlohmann::ordered_json;
 
-// An SI value rounded to 15 significant digits: the digits a double holds for sure, so
-// that unit conversions leave no noise in the last place (4120800, not 4120800.0000000005).
-double rounded(double x) {
-  if (x == 0 || !std::isfinite(x)) return x + 0.0;
-  const std::string text = fmt::format("{:.15g}", x);
-  return std::strtod(text.c_str(), nullptr);
-}
-
 // Sets j[a][b]... along the dotted key.
 void place(ordered_json& j, std::string_view key, double value) {
   ordered_json* at = &j;
@@ -28,7 +20,7 @@ void place(ordered_json& j, std::string_view key, double value) {
     at = &(*at)[std::string(key.substr(0, dot))];
     key.remove_prefix(dot + 1);
   }
-  (*at)[std::string(key)] = rounded(value);
+  (*at)[std::string(key)] = rounded_for_output(value);
 }
 
 ordered_json error_json(const CaseOutcome& o) {

@@ -1,6 +1,12 @@
 #include "shaftwork/io/result_keys.hpp"
 
+#include <cmath>
 #include <string>
+
+#include <fmt/format.h>
+
+#include "shaftwork/io/number_format.hpp"
+#include "shaftwork/text.hpp"
 
 namespace shaftwork::io {
 
@@ -142,6 +148,18 @@ const std::vector<ResultKey>& result_keys() {
   return rows;
 }
 
+std::size_t row_of(const ResultKey& k) { return static_cast<std::size_t>(&k - result_keys().data()); }
+
+ResultNumbers result_numbers(const Rating& rating) {
+  ResultNumbers numbers;
+  numbers.reserve(result_keys().size());
+  for (const ResultKey& k : result_keys()) {
+    const std::optional<double> v = k.value(rating);
+    numbers.push_back(v && std::isfinite(*v) ? rounded_for_output(*v) : v);
+  }
+  return numbers;
+}
+
 const ResultKey* find_result_key(std::string_view key) {
   for (const ResultKey& k : result_keys()) {
     if (k.key == key) return &k;
@@ -156,6 +174,14 @@ std::string result_key_list() {
     out += k.key;
   }
   return out;
+}
+
+std::string no_result_key(std::string_view key) {
+  std::vector<std::string_view> keys;
+  for (const ResultKey& k : result_keys()) keys.push_back(k.key);
+  const std::string_view near = nearest_of(key, keys);
+  if (!near.empty()) return fmt::format("\"{}\" is no result key; did you mean {}?", key, near);
+  return fmt::format("\"{}\" is no result key; the keys are: {}", key, result_key_list());
 }
 
 }  // namespace shaftwork::io

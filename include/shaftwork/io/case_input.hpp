@@ -24,6 +24,8 @@ inline constexpr std::string_view kIdKey = "id";
 inline constexpr std::string_view kMachineKey = "machine";
 inline constexpr std::string_view kFluidKey = "fluid";
 inline constexpr std::string_view kNoteKey = "note";
+// The expected results of `shaftwork check` (io/expectations.hpp reads them; rating ignores them).
+inline constexpr std::string_view kExpectKey = "expect";
 
 struct GivenValue {
   machines::Input input;
