@@ -55,6 +55,7 @@ struct CheckRun {
   std::vector<io::CaseCheck> checks;
   bool keep_outcomes = false;             // --record: the results are written at the end
   std::vector<io::CaseOutcome> outcomes;  // kept only then
+  io::CaseIdRegister ids;
 };
 
 bool is_json_name(const fs::path& p) {
@@ -122,6 +123,7 @@ void check_file(const CaseFile& file, CheckRun& run) {
     const auto cases = io::case_objects(document, origin);
     auto outcomes = io::rate_document(document, origin, run.fluids);
     for (std::size_t i = 0; i < outcomes.size(); ++i) {
+      run.ids.check(outcomes[i], i);
       run.checks.push_back(io::check_case(outcomes[i], *cases[i], run.baseline ? &*run.baseline : nullptr, run.compare));
       io::write_check_lines(lines, run.checks.back());
       if (run.keep_outcomes) run.outcomes.push_back(std::move(outcomes[i]));

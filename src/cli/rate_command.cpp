@@ -56,26 +56,12 @@ io::ResultFormat result_format(const std::string& name) {
   return io::ResultFormat::table;
 }
 
-// Ids seen so far in this run, with where: a second case of one id gets a warning.
-class IdRegister {
- public:
-  void check(io::CaseOutcome& o, std::size_t index) {
-    const auto [at, added] = seen_.try_emplace(o.id, fmt::format("{}, case {}", o.origin, index + 1));
-    if (added) return;
-    o.warnings.push_back(fmt::format("the id \"{}\" was used before ({}): results of one id are hard to tell apart",
-                                     o.id, at->second));
-  }
-
- private:
-  std::map<std::string, std::string> seen_;
-};
-
 // Rates the cases of each file as they come and writes each result at once: memory holds
 // one file's document and one result. Returns whether a case failed; sets file_unusable.
 bool rate_files(const RateOptions& options, io::FluidFactory& fluids, io::ResultStream& results,
                 bool& file_unusable) {
   bool case_failed = false;
-  IdRegister ids;
+  io::CaseIdRegister ids;
   for (const auto& path : options.files) {
     const std::string origin = path == "-" ? "standard input" : path;
     try {

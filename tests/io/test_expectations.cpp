@@ -127,7 +127,8 @@ TEST_CASE("a wrong expect entry is refused, naming the key and the problem") {
   CHECK(refusal(R"({"power": {"value": "1 MW", "tolerance": -5}})") ==
         "expect.power: tolerance: \"-5 W\": a tolerance cannot be negative");
   const std::string power_units = units_listed(units::Dimension::power);
-  CHECK(power_units.starts_with("W, kW, MW, hp, Btu/h"));
+  CHECK(power_units.starts_with("W, kW, MW"));
+  CHECK(power_units.find("hp") != std::string::npos);
   CHECK(refusal(R"({"power": {"value": "1 MW", "tolerance": "5"}})") ==
         "expect.power: tolerance: \"5\": give a unit of power (" + power_units + ") or a percentage");
   CHECK(refusal(R"({"power": {"value": "1 MW", "tolerance": "5 kWh"}})") ==
