@@ -14,6 +14,8 @@
 
 #include <benchmark/benchmark.h>
 
+#include "shaftwork/fluids/compressibility_estimate.hpp"
+#include "shaftwork/fluids/cubic_eos.hpp"
 #include "shaftwork/fluids/nasa_polynomial.hpp"
 
 namespace {
@@ -61,8 +63,12 @@ std::array<std::pair<double, double>, kPoints> pressure_temperature_points() {
   return points;
 }
 
-void bm_from_pt(benchmark::State& state, const NasaPolynomialGas& gas) {
-  const auto points = pressure_temperature_points();
+using Points = std::array<std::pair<double, double>, kPoints>;
+
+// State calls of any model, cycling through `make_points()`.
+template <class Gas>
+void bm_from_pt(benchmark::State& state, const Gas& gas, Points (*make_points)()) {
+  const Points points = make_points();
   std::size_t i = 0;
   for (auto _ : state) {
     const auto& [p, T] = points[i++ % kPoints];
@@ -70,30 +76,30 @@ void bm_from_pt(benchmark::State& state, const NasaPolynomialGas& gas) {
   }
 }
 
-void bm_from_ph(benchmark::State& state, const NasaPolynomialGas& gas) {
-  std::array<std::pair<double, double>, kPoints> inputs{};
-  const auto points = pressure_temperature_points();
-  for (std::size_t i = 0; i < kPoints; ++i) {
-    inputs[i] = {points[i].first, gas.from_pt(points[i].first, points[i].second).enthalpy};
+// The inverse calls: from (p, h) when `entropy` is false, from (p, s) when true, at the
+// enthalpies or entropies of the same points.
+template <class Gas>
+void bm_inverse(benchmark::State& state, const Gas& gas, Points (*make_points)(), bool entropy) {
+  Points inputs = make_points();
+  for (auto& [p, x] : inputs) {
+    const auto st = gas.from_pt(p, x);
+    x = entropy ? st.entropy : st.enthalpy;
   }
   std::size_t i = 0;
   for (auto _ : state) {
-    const auto& [p, h] = inputs[i++ % kPoints];
-    benchmark::DoNotOptimize(gas.from_ph(p, h));
+    const auto& [p, x] = inputs[i++ % kPoints];
+    benchmark::DoNotOptimize(entropy ? gas.from_ps(p, x) : gas.from_ph(p, x));
   }
 }
 
-void bm_from_ps(benchmark::State& state, const NasaPolynomialGas& gas) {
-  std::array<std::pair<double, double>, kPoints> inputs{};
-  const auto points = pressure_temperature_points();
-  for (std::size_t i = 0; i < kPoints; ++i) {
-    inputs[i] = {points[i].first, gas.from_pt(points[i].first, points[i].second).entropy};
-  }
-  std::size_t i = 0;
-  for (auto _ : state) {
-    const auto& [p, s] = inputs[i++ % kPoints];
-    benchmark::DoNotOptimize(gas.from_ps(p, s));
-  }
+template <class Gas>
+void bm_from_ph(benchmark::State& state, const Gas& gas, Points (*make_points)()) {
+  bm_inverse(state, gas, make_points, false);
+}
+
+template <class Gas>
+void bm_from_ps(benchmark::State& state, const Gas& gas, Points (*make_points)()) {
+  bm_inverse(state, gas, make_points, true);
 }
 
 void bm_construct(benchmark::State& state) {
@@ -107,14 +113,80 @@ void bm_construct(benchmark::State& state) {
   }
 }
 
+// --- Cubic equations of state (issue 15): an 11-species sour natural gas (invented example
+// composition, mole fractions) on Peng-Robinson and Soave-Redlich-Kwong, at compressor states
+// from 20 to 100 bar and 290 to 450 K (all one gas phase: its dew point is below 250 K).
+const std::vector<std::pair<std::string, double>> kSourGas = {
+    {"CH4", 0.905},      {"C2H6", 0.045},     {"C3H8", 0.012},     {"n-C4H10", 0.003},
+    {"i-C4H10", 0.0025}, {"n-C5H12", 0.0008}, {"i-C5H12", 0.0007}, {"n-C6H14", 0.0005},
+    {"N2", 0.015},       {"CO2", 0.0085},     {"H2S", 0.007}};
+
+shaftwork::fluids::CubicGas make_cubic(shaftwork::fluids::CubicKind kind) {
+  const SpeciesLibrary& library = SpeciesLibrary::built_in();
+  std::vector<Component> components;
+  for (const auto& [name, fraction] : kSourGas) components.push_back({library.find(name), fraction});
+  return shaftwork::fluids::CubicGas(kind, components, CompositionBasis::mole);
+}
+
+const shaftwork::fluids::CubicGas& peng_robinson() {
+  static const auto gas = make_cubic(shaftwork::fluids::CubicKind::peng_robinson);
+  return gas;
+}
+
+const shaftwork::fluids::CubicGas& soave() {
+  static const auto gas = make_cubic(shaftwork::fluids::CubicKind::soave_redlich_kwong);
+  return gas;
+}
+
+Points compressor_points() {
+  Points points{};
+  for (std::size_t i = 0; i < kPoints; ++i) {
+    const double p = 20e5 + 80e5 * static_cast<double>((i * 37) % kPoints) / kPoints;
+    const double T = 290.0 + 160.0 * static_cast<double>(i) / kPoints;
+    points[i] = {p, T};
+  }
+  return points;
+}
+
+void bm_cubic_construct(benchmark::State& state) {
+  for (auto _ : state) benchmark::DoNotOptimize(make_cubic(shaftwork::fluids::CubicKind::peng_robinson));
+}
+
+void bm_compressibility_estimator(benchmark::State& state) {
+  const auto estimator = *shaftwork::fluids::CompressibilityEstimator::for_mixture(kSourGas);
+  const auto points = compressor_points();
+  std::size_t i = 0;
+  for (auto _ : state) {
+    const auto& [p, T] = points[i++ % kPoints];
+    benchmark::DoNotOptimize(estimator.z(p, T));
+  }
+}
+
+void bm_compressibility_estimate(benchmark::State& state) {
+  const auto points = compressor_points();
+  std::size_t i = 0;
+  for (auto _ : state) {
+    const auto& [p, T] = points[i++ % kPoints];
+    benchmark::DoNotOptimize(shaftwork::fluids::estimate_compressibility(kSourGas, p, T));
+  }
+}
+
 }  // namespace
 
-BENCHMARK_CAPTURE(bm_from_pt, nasa_air, air());
-BENCHMARK_CAPTURE(bm_from_pt, nasa_natural_gas, natural_gas());
-BENCHMARK_CAPTURE(bm_from_ph, nasa_air, air());
-BENCHMARK_CAPTURE(bm_from_ph, nasa_natural_gas, natural_gas());
-BENCHMARK_CAPTURE(bm_from_ps, nasa_air, air());
-BENCHMARK_CAPTURE(bm_from_ps, nasa_natural_gas, natural_gas());
+BENCHMARK_CAPTURE(bm_from_pt, nasa_air, air(), pressure_temperature_points);
+BENCHMARK_CAPTURE(bm_from_pt, nasa_natural_gas, natural_gas(), pressure_temperature_points);
+BENCHMARK_CAPTURE(bm_from_ph, nasa_air, air(), pressure_temperature_points);
+BENCHMARK_CAPTURE(bm_from_ph, nasa_natural_gas, natural_gas(), pressure_temperature_points);
+BENCHMARK_CAPTURE(bm_from_ps, nasa_air, air(), pressure_temperature_points);
+BENCHMARK_CAPTURE(bm_from_ps, nasa_natural_gas, natural_gas(), pressure_temperature_points);
 BENCHMARK(bm_construct);
+BENCHMARK_CAPTURE(bm_from_pt, peng_robinson_11, peng_robinson(), compressor_points);
+BENCHMARK_CAPTURE(bm_from_ph, peng_robinson_11, peng_robinson(), compressor_points);
+BENCHMARK_CAPTURE(bm_from_ps, peng_robinson_11, peng_robinson(), compressor_points);
+BENCHMARK_CAPTURE(bm_from_pt, soave_redlich_kwong_11, soave(), compressor_points);
+BENCHMARK_CAPTURE(bm_from_ps, soave_redlich_kwong_11, soave(), compressor_points);
+BENCHMARK(bm_cubic_construct)->Unit(benchmark::kMillisecond);
+BENCHMARK(bm_compressibility_estimate);
+BENCHMARK(bm_compressibility_estimator);
 
 BENCHMARK_MAIN();

@@ -1,5 +1,5 @@
 // Fuzz target: unit strings. The first byte picks the dimension and whether the case has a
-// site barometer; the rest is the text units::parse reads. Properties checked beyond "no
+// site barometer and site standard conditions; the rest is the text units::parse reads. Properties checked beyond "no
 // crash": a parsed value is finite and every unit round-trips through to_si/from_si.
 #include <cmath>
 #include <cstddef>
@@ -20,6 +20,7 @@ constexpr Dimension kDimensions[] = {
     Dimension::pressure,     Dimension::temperature,     Dimension::mass_flow,     Dimension::volume_flow,
     Dimension::standard_volume_flow, Dimension::power,   Dimension::specific_energy, Dimension::length,
     Dimension::specific_heat, Dimension::density,        Dimension::molar_mass,    Dimension::fraction,
+    Dimension::rotational_speed, Dimension::velocity,
 };
 constexpr std::size_t kDimensionCount = sizeof(kDimensions) / sizeof(kDimensions[0]);
 
@@ -30,6 +31,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   const Dimension d = kDimensions[data[0] % kDimensionCount];
   shaftwork::units::ParseContext context;
   if (data[0] & 0x80) context.barometric_pressure = 98000.0;
+  if (data[0] & 0x40) context.standard_conditions = shaftwork::units::StandardConditions{100000.0, 293.15};
   const std::string_view text(reinterpret_cast<const char*>(data + 1), size - 1);
 
   shaftwork::units::ParseNotes notes;
@@ -48,7 +50,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
   const auto* info = shaftwork::units::find_unit(unit);
   if (info == nullptr || info->dimension != d) return 0;
   const double barometer = context.barometric_pressure.value_or(shaftwork::units::kStandardAtmosphere);
-  const double back = shaftwork::units::from_si(si, unit, d, barometer);
+  const double back = shaftwork::units::from_si(si, unit, d, context);
   FUZZ_REQUIRE(std::isfinite(back));
   // Back to SI within the rounding of the affine map; gauge units and temperature scales lose
   // the digits of small values against the barometer or the offset.

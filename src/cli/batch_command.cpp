@@ -13,6 +13,7 @@
 #include "commands.hpp"
 #include "progress_line.hpp"
 #include "shaftwork/error.hpp"
+#include "shaftwork/io/atomic_file.hpp"
 #include "shaftwork/io/batch.hpp"
 #include "shaftwork/io/byte_stream.hpp"
 #include "shaftwork/io/case_runner.hpp"
@@ -21,11 +22,35 @@
 namespace shaftwork::cli {
 namespace {
 
+// Notices of the batch (columns carried through) go to standard error.
+class StderrNotices final : public io::BatchNotices {
+ public:
+  void notice(const std::string& text) override { std::cerr << "notice: " << text << '\n'; }
+};
+
+// Rating is arithmetic, so threads beyond the cores only take turns; a few per core are
+// allowed (docs/batch.md), more are capped with a warning rather than asked of the system.
+constexpr unsigned kThreadsPerCore = 4;
+
+unsigned thread_count(unsigned asked) {
+  const unsigned cores = std::max(1u, std::thread::hardware_concurrency());
+  if (asked == 0) return cores;
+  const unsigned cap = kThreadsPerCore * cores;
+  if (asked <= cap) return asked;
+  std::cerr << fmt::format("warning: --jobs: at most {} threads are used on {} cores ({} a core); rating with {}\n",
+                           cap, cores, kThreadsPerCore, cap);
+  return cap;
+}
 
 }  // namespace
 
 int run_batch(const BatchCommandOptions& options) {
   try {
+    if (!options.output.empty()) {
+      std::vector<std::string> inputs = {options.points, options.template_file};
+      inputs.insert(inputs.end(), options.species_files.begin(), options.species_files.end());
+      io::refuse_output_among_inputs(options.output, inputs);
+    }
     io::FluidFactory fluids;
     for (const auto& path : options.species_files) fluids.add_species_file(path);
     const auto document = io::parse_json_strict(io::read_text_file(options.template_file), options.template_file);
@@ -34,27 +59,34 @@ int run_batch(const BatchCommandOptions& options) {
     io::BatchOptions batch;
     batch.format = options.format == "jsonl" ? io::BatchFormat::jsonl : io::BatchFormat::csv;
     batch.units = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
-    batch.jobs = options.jobs > 0 ? options.jobs : std::max(1u, std::thread::hardware_concurrency());
+    batch.jobs = thread_count(options.jobs);
+    batch.columns = options.columns;
 
     const bool from_stdin = options.points == "-";
     const std::string points_name = from_stdin ? "standard input" : options.points;
     std::unique_ptr<io::FdSource> source = std::make_unique<io::FdSource>(
         from_stdin ? io::FdSource(STDIN_FILENO, points_name) : io::FdSource::open(options.points));
-    std::unique_ptr<io::AtomicFileSink> file;
+    std::unique_ptr<io::OutputFile> file;
     std::unique_ptr<io::FdSink> stdout_sink;
     io::ByteSink* sink = nullptr;
     if (options.output.empty()) {
       stdout_sink = std::make_unique<io::FdSink>(STDOUT_FILENO, "standard output");
       sink = stdout_sink.get();
     } else {
-      file = std::make_unique<io::AtomicFileSink>(options.output);
+      file = std::make_unique<io::OutputFile>(options.output);
       sink = file.get();
     }
     std::unique_ptr<ProgressLine> progress;
     if (!options.quiet && ProgressLine::wanted()) progress = std::make_unique<ProgressLine>();
 
-    const io::BatchSummary summary = io::rate_batch(*source, points_name, templ, *sink, batch, progress.get());
+    StderrNotices notices;
+    const io::BatchSummary summary =
+        io::rate_batch(*source, points_name, templ, *sink, batch, progress.get(), &notices);
     if (file) file->commit();
+    if (summary.threads < batch.jobs) {
+      std::cerr << fmt::format("warning: the system started {} of the {} threads asked for; the batch was rated on {}\n",
+                               summary.threads, batch.jobs, summary.threads);
+    }
     if (summary.failed > 0) {
       std::cerr << fmt::format("error: {} of {} rows could not be rated; each one's \"error\" says why\n",
                                summary.failed, summary.rows);

@@ -15,6 +15,7 @@ struct BatchCommandOptions {
   unsigned jobs = 0;          // 0: every core
   bool quiet = false;
   std::vector<std::string> species_files;
+  std::vector<std::string> columns;  // --columns: result keys; empty for the defaults
 };
 
 // Runs a batch and returns the exit status (0 every row rated, 1 a row failed,

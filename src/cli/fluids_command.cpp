@@ -5,16 +5,54 @@
 #include <vector>
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 #include <nlohmann/json.hpp>
 
 #include "commands.hpp"
 #include "shaftwork/error.hpp"
+#include "shaftwork/fluids/critical_data.hpp"
 #include "shaftwork/io/fluid_factory.hpp"
 
 namespace shaftwork::cli {
 namespace {
 
 std::string range_text(const fluids::Range& r) { return fmt::format("{:g}-{:g} K", r.low, r.high); }
+
+// The critical constants and k_ij of the cubic models, with their sources.
+void add_cubic_data(nlohmann::ordered_json& doc) {
+  const fluids::CriticalData& data = fluids::CriticalData::built_in();
+  doc["critical"] = nlohmann::ordered_json::array();
+  for (const auto& [name, c] : data.constants()) {
+    doc["critical"].push_back({{"species", name},
+                               {"critical_temperature", c.critical_temperature},
+                               {"critical_pressure", c.critical_pressure},
+                               {"acentric_factor", c.acentric_factor},
+                               {"source", c.source}});
+  }
+  doc["interaction"] = nlohmann::ordered_json::array();
+  for (const fluids::InteractionParameter& p : data.interactions()) {
+    std::string models = p.peng_robinson ? "peng-robinson" : "";
+    if (p.soave_redlich_kwong) models += models.empty() ? "soave-redlich-kwong" : ", soave-redlich-kwong";
+    doc["interaction"].push_back(
+        {{"pair", p.first + "-" + p.second}, {"k", p.k}, {"models", models}, {"source", p.source}});
+  }
+}
+
+void print_cubic_data(const nlohmann::ordered_json& doc) {
+  std::cout << "\nCritical constants (peng-robinson, soave-redlich-kwong; data/critical.txt)\n";
+  for (const auto& c : doc["critical"]) {
+    std::cout << fmt::format("  {:<18}Tc {:>7g} K  pc {:>8.4g} bar  omega {:>7g}  {}\n",
+                             c["species"].get<std::string>(), c["critical_temperature"].get<double>(),
+                             c["critical_pressure"].get<double>() / 1e5, c["acentric_factor"].get<double>(),
+                             c["source"].get<std::string>());
+  }
+  std::cout << fmt::format("\nInteraction parameters k_ij ({} pairs, data/interaction.txt; other pairs 0)\n",
+                           doc["interaction"].size());
+  for (const auto& p : doc["interaction"]) {
+    std::cout << fmt::format("  {:<26}{:>8.4f}  {}  {}\n", p["pair"].get<std::string>(), p["k"].get<double>(),
+                             p["models"].get<std::string>(), p["source"].get<std::string>());
+  }
+}
 
 int run_fluids(const std::string& format, const std::vector<std::string>& species_files) {
   try {
@@ -39,12 +77,12 @@ int run_fluids(const std::string& format, const std::vector<std::string>& specie
                                 {"temperature_range", {sp.intervals.front().t_low, sp.intervals.back().t_high}},
                                 {"source", sp.source}});
     }
-    doc["models"] = {
-        {{"name", "constant-cp"}, {"keys", "any two of cp, cv, k, R, molar_mass"}},
-        {{"name", "nasa-polynomial"}, {"keys", "species, or mixture with basis (mole or mass)"}},
-        {{"name", "iapws-if97"}, {"keys", "none"}},
-        {{"name", "incompressible"}, {"keys", "density, cp"}},
-    };
+    doc["models"] = nlohmann::ordered_json::array();
+    for (const io::FluidModelInfo& m : io::fluid_models()) {
+      const std::vector<std::string> keys(m.keys.begin() + 1, m.keys.end());  // without "model"
+      doc["models"].push_back({{"name", m.name}, {"keys", keys}, {"summary", m.summary}});
+    }
+    add_cubic_data(doc);
     if (format == "json") {
       std::cout << doc.dump(2) << '\n';
       return kExitOk;
@@ -67,8 +105,11 @@ int run_fluids(const std::string& format, const std::vector<std::string>& specie
     }
     std::cout << "\nModels (a case's \"fluid\" may be an object with one of these)\n";
     for (const auto& m : doc["models"]) {
-      std::cout << fmt::format("  {:<18}keys: {}\n", m["name"].get<std::string>(), m["keys"].get<std::string>());
+      const auto keys = m["keys"].get<std::vector<std::string>>();
+      std::cout << fmt::format("  {:<21}{}\n  {:<21}keys: {}\n", m["name"].get<std::string>(),
+                               m["summary"].get<std::string>(), "", keys.empty() ? "none" : fmt::format("{}", fmt::join(keys, ", ")));
     }
+    print_cubic_data(doc);
     return kExitOk;
   } catch (const Error& e) {
     std::cerr << "error: " << e.what() << '\n';

@@ -5,7 +5,9 @@
 #include <algorithm>
 #include <iostream>
 #include <iterator>
+#include <map>
 #include <memory>
+#include <optional>
 #include <sstream>
 #include <string>
 #include <string_view>
@@ -17,6 +19,7 @@
 #include "commands.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/atomic_file.hpp"
+#include "shaftwork/io/case_reader.hpp"
 #include "shaftwork/io/case_runner.hpp"
 #include "shaftwork/io/result_writer.hpp"
 #include "shaftwork/io/text_file.hpp"
@@ -34,63 +37,104 @@ struct RateOptions {
   unsigned jobs = 0;
   bool quiet = false;
   bool format_given = false;
+  bool units_given = false;
+  std::vector<std::string> columns;  // --columns: result keys of a batch's csv
 };
 
 
-int run_rate(const RateOptions& options) {
-  io::FluidFactory fluids;
-  try {
-    for (const auto& path : options.species_files) fluids.add_species_file(path);
-  } catch (const Error& e) {
-    std::cerr << "error: " << e.what() << '\n';
-    return kExitUnusable;
-  }
-  bool file_unusable = false;
-  std::vector<io::CaseOutcome> outcomes;
+// Each case's warnings and, for a failed case, its error, on standard error (the results
+// keep them too).
+void report_case(const io::CaseOutcome& o) {
+  for (const auto& w : o.warnings) std::cerr << fmt::format("warning: case \"{}\": {}\n", o.id, w);
+  if (!o.ok()) std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
+}
+
+io::ResultFormat result_format(const std::string& name) {
+  if (name == "json") return io::ResultFormat::json;
+  if (name == "jsonl") return io::ResultFormat::jsonl;
+  if (name == "csv") return io::ResultFormat::csv;
+  return io::ResultFormat::table;
+}
+
+// Rates the cases of each file as they come and writes each result at once: memory holds
+// one file's document and one result. Returns whether a case failed; sets file_unusable.
+bool rate_files(const RateOptions& options, io::FluidFactory& fluids, io::ResultStream& results,
+                bool& file_unusable) {
+  bool case_failed = false;
+  io::CaseIdRegister ids;
   for (const auto& path : options.files) {
     const std::string origin = path == "-" ? "standard input" : path;
     try {
       const auto document = io::parse_json_strict(io::read_text_file(path), origin);
-      auto rated = io::rate_document(document, origin, fluids);
-      for (auto& o : rated) outcomes.push_back(std::move(o));
+      const auto cases = io::case_objects(document, origin);
+      for (std::size_t i = 0; i < cases.size(); ++i) {
+        io::CaseOutcome o = io::rate_case(*cases[i], i, fluids, origin);
+        ids.check(o, i);
+        report_case(o);
+        case_failed = case_failed || !o.ok();
+        results.add(o);
+      }
     } catch (const Error& e) {
       std::cerr << "error: " << e.what() << '\n';
       file_unusable = true;
     }
   }
+  results.finish();
+  return case_failed;
+}
 
-  const io::UnitSystem system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
-  std::ostringstream text;
-  if (options.format == "json") {
-    io::write_json(text, outcomes);
-  } else if (options.format == "jsonl") {
-    for (const auto& o : outcomes) text << io::result_json(o).dump() << '\n';
-  } else if (options.format == "csv") {
-    io::write_csv(text, outcomes, system);
-  } else {
-    io::write_table(text, outcomes, system);
+int run_rate(const RateOptions& options) {
+  io::FluidFactory fluids;
+  std::optional<io::OutputFile> file;  // opened first: a path it refuses costs no rating
+  try {
+    std::vector<std::string> inputs = options.files;
+    inputs.insert(inputs.end(), options.species_files.begin(), options.species_files.end());
+    if (!options.output.empty()) io::refuse_output_among_inputs(options.output, inputs);
+    for (const auto& path : options.species_files) fluids.add_species_file(path);
+    if (!options.output.empty()) file.emplace(options.output);
+  } catch (const Error& e) {
+    std::cerr << "error: " << e.what() << '\n';
+    return kExitUnusable;
   }
-
+  io::TableOptions table;
+  table.system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
+  table.system_forced = options.units_given;
+  table.show_origin = options.files.size() > 1;
+  bool file_unusable = false;
+  io::SinkStream out(file ? static_cast<io::ByteSink&>(*file) : io::standard_output());
+  const auto results = io::make_result_stream(result_format(options.format), out, table);
   bool case_failed = false;
-  for (const auto& o : outcomes) {
-    if (!o.ok()) {
-      case_failed = true;
-      std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
+  try {
+    case_failed = rate_files(options, fluids, *results, file_unusable);
+    out.flush();
+    if (file && file_unusable) {
+      // Exit 2 leaves an existing output file as it was (the temporary file goes with `file`):
+      // the results of some inputs must not pass for the run's.
+      std::cerr << fmt::format("error: {}: not written, since an input could not be used\n", options.output);
+    } else if (file) {
+      file->commit();
     }
-  }
-  if (options.output.empty()) {
-    std::cout << text.str() << std::flush;
-  } else {
-    try {
-      io::write_file_atomically(options.output, text.str());
-    } catch (const Error& e) {
-      std::cerr << "error: " << e.what() << '\n';
-      return kExitUnusable;
-    }
+  } catch (const Error& e) {
+    std::cerr << "error: " << e.what() << '\n';
+    return kExitUnusable;
   }
   if (file_unusable) return kExitUnusable;
   return case_failed ? kExitCaseFailed : kExitOk;
 }
+
+// --jobs: a whole number of threads, at least 1. (CLI11's PositiveNumber answered 0 with the
+// whole range of a double, 309 digits.) A number too large for `unsigned` is taken as the
+// largest one: the cap in batch_command.cpp then says how many threads are used.
+const CLI::Validator kThreadCount(
+    [](std::string& text) -> std::string {
+      const bool digits = !text.empty() && text.find_first_not_of("0123456789") == std::string::npos;
+      if (!digits || text.find_first_not_of('0') == std::string::npos) {
+        return fmt::format("expected a whole number of threads, at least 1; got \"{}\"", text);
+      }
+      if (text.size() > 9) text = "999999999";
+      return "";
+    },
+    "THREADS");
 
 bool ends_with(const std::string& text, std::string_view suffix) {
   return text.size() >= suffix.size() && text.compare(text.size() - suffix.size(), suffix.size(), suffix) == 0;
@@ -123,6 +167,7 @@ int run_rate_batch(const RateOptions& options) {
   batch.jobs = options.jobs;
   batch.quiet = options.quiet;
   batch.species_files = options.species_files;
+  batch.columns = options.columns;
   return run_batch(batch);
 }
 
@@ -137,18 +182,25 @@ void install_rate(CLI::App& sub, int& exit_status) {
                                 "Output format (jsonl: one result per line; a batch writes csv or jsonl)")
                      ->check(CLI::IsMember({"table", "json", "csv", "jsonl"}))
                      ->capture_default_str();
-  sub.add_option("--units", options->units, "Units of table and csv output (json is always SI)")
-      ->check(CLI::IsMember({"si", "us"}))
-      ->capture_default_str();
+  auto* units = sub.add_option("--units", options->units,
+                                "Units of table and csv output (json is always SI); a table otherwise shows each "
+                                "case in the units it was given in")
+                     ->check(CLI::IsMember({"si", "us"}))
+                     ->capture_default_str();
+  sub.add_option("--columns", options->columns,
+                 "Result columns of a batch's csv, by dotted result key (comma-separated); default: the usual set")
+      ->delimiter(',');
   sub.add_option("-o,--output", options->output, "Write the results to this file (whole or not at all)");
   sub.add_option("--species-file", options->species_files,
                  "Extra species in the NASA 9-coefficient format (may be repeated)");
   sub.add_option("--case", options->template_file,
                  "Template case file for a CSV of test points: what every row shares (docs/batch.md)");
-  sub.add_option("--jobs", options->jobs, "Threads for a batch (default: every core)")->check(CLI::PositiveNumber);
+  sub.add_option("--jobs", options->jobs, "Threads for a batch (default: every core; at most 4 a core)")
+      ->transform(kThreadCount);
   sub.add_flag("--quiet", options->quiet, "No progress line for a long batch");
-  sub.callback([options, format, &exit_status] {
+  sub.callback([options, format, units, &exit_status] {
     options->format_given = format->count() > 0;
+    options->units_given = units->count() > 0;
     const bool batch = !options->template_file.empty() ||
                        std::any_of(options->files.begin(), options->files.end(),
                                    [](const std::string& f) { return ends_with(f, ".csv") || ends_with(f, ".CSV"); });

@@ -11,7 +11,9 @@
 
 #include "commands.hpp"
 #include "shaftwork/error.hpp"
+#include "shaftwork/text.hpp"
 #include "shaftwork/io/case_runner.hpp"
+#include "shaftwork/io/display_units.hpp"
 #include "shaftwork/io/fluid_factory.hpp"
 #include "shaftwork/io/json_quantity.hpp"
 #include "shaftwork/io/text_file.hpp"
@@ -28,11 +30,18 @@ struct StateOptions {
   std::optional<std::string> entropy;
   std::optional<std::string> barometer;
   std::string format = "table";
+  std::string units = "si";
   std::vector<std::string> species_files;
 };
 
-double quantity(const std::string& text, units::Dimension d, const char* option,
-                const units::ParseContext& context, units::ParseNotes& notes) {
+// A value read from the command line, and the unit it was written in ("" for a bare SI number).
+struct Given {
+  double si = 0;
+  std::string unit;
+};
+
+Given quantity(const std::string& text, units::Dimension d, const char* option, const units::ParseContext& context,
+               units::ParseNotes& notes) {
   // A bare number on the command line is SI, as in case files.
   nlohmann::json value;
   double number = 0;
@@ -42,7 +51,8 @@ double quantity(const std::string& text, units::Dimension d, const char* option,
   } else {
     value = text;
   }
-  return io::read_quantity(value, d, option, context, notes).si;
+  const io::ReadQuantity q = io::read_quantity(value, d, option, context, notes);
+  return {q.si, q.unit};
 }
 
 nlohmann::ordered_json state_json(const fluids::State& s) {
@@ -62,26 +72,47 @@ nlohmann::ordered_json state_json(const fluids::State& s) {
   return j;
 }
 
-void print_table(const fluids::State& s, const std::string& fluid, const fluids::FluidModel& model) {
-  std::cout << fmt::format("{} ({}: {})\n", fluid, model.model_name(), model.description());
-  auto row = [](const char* name, const std::string& value, const char* unit) {
-    std::cout << fmt::format("  {:<18}{:>16}  {}\n", name, value, unit);
-  };
-  row("pressure", fmt::format("{:.6g}", s.pressure / 1000), "kPa");
-  row("temperature", fmt::format("{:.4f}", s.temperature), fmt::format("K ({:.2f} degC)", s.temperature - 273.15).c_str());
-  row("enthalpy", fmt::format("{:.6g}", s.enthalpy / 1000), "kJ/kg");
-  row("entropy", fmt::format("{:.6g}", s.entropy / 1000), "kJ/(kg K)");
-  row("density", fmt::format("{:.6g}", s.density), "kg/m3");
-  if (s.quality) {
-    row("quality", fmt::format("{:.6g}", *s.quality), "(vapour mass fraction)");
-  } else {
-    row("cp", fmt::format("{:.6g}", s.cp / 1000), "kJ/(kg K)");
-    row("cv", fmt::format("{:.6g}", s.cv / 1000), "kJ/(kg K)");
-    row("k = cp/cv", fmt::format("{:.6g}", s.k()), "");
+// The state as rate's table shows a case: a label, the value in the unit the user wrote
+// for that dimension (or the unit system's), and how it came about.
+struct StateTable {
+  const io::UnitSystem system;
+  const double barometer;
+  std::string pressure_unit;     // as given
+  std::string temperature_unit;  // as given, when the temperature was
+  char given = 'T';              // 'T', 'h' or 's': which property was given with p
+
+  void row(std::string_view label, double si, units::Dimension d, std::string unit, io::Precision precision,
+           std::string_view note) const {
+    if (unit.empty()) unit = io::column_unit(d, system);
+    const double shown = unit.empty() ? si : units::from_si(si, unit, d, barometer);
+    const std::string text = io::format_number(shown, precision) + (unit.empty() ? "" : " " + unit);
+    std::string line = fmt::format("  {:<31}{:<20}{}", label, text, note);
+    line.erase(line.find_last_not_of(' ') + 1);
+    std::cout << line << '\n';
   }
-  if (s.molar_mass > 0) row("molar mass", fmt::format("{:.6g}", s.molar_mass * 1000), "g/mol");
-  if (s.compressibility > 0) row("compressibility", fmt::format("{:.6g}", s.compressibility), "");
-}
+
+  void print(const fluids::State& s, const std::string& fluid, const fluids::FluidModel& model) const {
+    using D = units::Dimension;
+    const io::Precision sig5{io::Precision::Kind::significant, 6};
+    const io::Precision dec2{io::Precision::Kind::decimals, 2};
+    const io::Precision dec4{io::Precision::Kind::decimals, 4};
+    std::cout << fmt::format("{} ({})\n", escape_control(fluid), model.model_name());
+    row("pressure", s.pressure, D::pressure, pressure_unit, sig5, "given");
+    row("temperature", s.temperature, D::temperature, temperature_unit, dec2, given == 'T' ? "given" : "");
+    row("enthalpy", s.enthalpy, D::specific_energy, "", sig5, given == 'h' ? "given" : "");
+    row("entropy", s.entropy, D::specific_entropy, "", sig5, given == 's' ? "given" : "");
+    row("density", s.density, D::density, "", sig5, "");
+    if (s.quality) {
+      row("quality", *s.quality, D::fraction, "", dec4, "vapour mass fraction");
+    } else {
+      row("cp", s.cp, D::specific_heat, "", sig5, "");
+      row("cv", s.cv, D::specific_heat, "", sig5, "");
+      row("k = cp/cv", s.k(), D::fraction, "", sig5, "");
+    }
+    if (s.molar_mass > 0) row("molar mass", s.molar_mass, D::molar_mass, "", sig5, "");
+    if (s.compressibility > 0) row("compressibility", s.compressibility, D::fraction, "", sig5, "");
+  }
+};
 
 int run_state(const StateOptions& o) {
   try {
@@ -101,22 +132,30 @@ int run_state(const StateOptions& o) {
 
     units::ParseContext context;
     units::ParseNotes notes;
-    if (o.barometer) context.barometric_pressure = quantity(*o.barometer, units::Dimension::pressure, "--barometer", {}, notes);
-    const double p = quantity(o.pressure, units::Dimension::pressure, "--pressure", context, notes);
+    if (o.barometer) {
+      context.barometric_pressure = quantity(*o.barometer, units::Dimension::pressure, "--barometer", {}, notes).si;
+    }
+    const Given p = quantity(o.pressure, units::Dimension::pressure, "--pressure", context, notes);
     if (notes.used_default_barometer) warnings.push_back("a gauge pressure without --barometer: 101.325 kPa assumed");
+    StateTable table{o.units == "us" ? io::UnitSystem::us : io::UnitSystem::si,
+                     context.barometric_pressure.value_or(units::kStandardAtmosphere), p.unit, "", 'T'};
     fluids::State s;
     if (o.temperature) {
-      s = model->from_pt(p, quantity(*o.temperature, units::Dimension::temperature, "--temperature", context, notes));
+      const Given T = quantity(*o.temperature, units::Dimension::temperature, "--temperature", context, notes);
+      table.temperature_unit = T.unit;
+      s = model->from_pt(p.si, T.si);
     } else if (o.enthalpy) {
-      s = model->from_ph(p, quantity(*o.enthalpy, units::Dimension::specific_energy, "--enthalpy", context, notes));
+      table.given = 'h';
+      s = model->from_ph(p.si, quantity(*o.enthalpy, units::Dimension::specific_energy, "--enthalpy", context, notes).si);
     } else {
-      s = model->from_ps(p, quantity(*o.entropy, units::Dimension::specific_entropy, "--entropy", context, notes));
+      table.given = 's';
+      s = model->from_ps(p.si, quantity(*o.entropy, units::Dimension::specific_entropy, "--entropy", context, notes).si);
     }
     for (const auto& w : warnings) std::cerr << "warning: " << w << '\n';
     if (o.format == "json") {
       std::cout << state_json(s).dump(2) << '\n';
     } else {
-      print_table(s, fluid_label, *model);
+      table.print(s, fluid_label, *model);
     }
     return kExitOk;
   } catch (const Error& e) {
@@ -129,7 +168,7 @@ int run_state(const StateOptions& o) {
 
 void install_state(CLI::App& sub, int& exit_status) {
   auto o = std::make_shared<StateOptions>();
-  auto* fluid = sub.add_option("--fluid", o->fluid, "A named fluid (shaftwork fluids lists them)");
+  auto* fluid = sub.add_option("--fluid", o->fluid, "A named fluid or a species (shaftwork fluids lists them)");
   auto* file = sub.add_option("--fluid-file", o->fluid_file, "A JSON file holding a fluid object");
   fluid->excludes(file);
   sub.add_option("--pressure", o->pressure, "Pressure, e.g. \"1 bar\" (a bare number is Pa)")->required();
@@ -140,6 +179,9 @@ void install_state(CLI::App& sub, int& exit_status) {
   h->excludes(s);
   sub.add_option("--barometer", o->barometer, "Site barometric pressure for gauge units");
   sub.add_option("--format", o->format, "Output format")->check(CLI::IsMember({"table", "json"}))->capture_default_str();
+  sub.add_option("--units", o->units, "Units of the table (json is always SI); given values keep their own")
+      ->check(CLI::IsMember({"si", "us"}))
+      ->capture_default_str();
   sub.add_option("--species-file", o->species_files, "Extra species in the NASA 9-coefficient format");
   sub.callback([o, fluid, file, t, h, s, &exit_status] {
     if (fluid->count() + file->count() != 1) {

@@ -34,11 +34,21 @@
 #include <fmt/format.h>
 
 #include "nasa_interval.hpp"
+#include "text_lines.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/fluids/nasa_polynomial.hpp"
 #include "shaftwork/units/quantity.hpp"
 
 namespace shaftwork::fluids {
+
+using detail::fail;
+using detail::first_word_upper;
+using detail::is_comment_line;
+using detail::Line;
+using detail::parse_number;
+using detail::split_lines;
+using detail::split_words;
+using detail::trim;
 
 // The text of a data/*.txt file compiled into the program (build/generated/embedded_data.cpp,
 // written by cmake/embed_data.cmake); empty when there is no such file.
@@ -50,86 +60,12 @@ constexpr double kJointTolerance = 1e-4;    // relative, H° and S°; see the fi
 constexpr double kJointToleranceCp = 1e-3;  // relative, cp°; see the file comment
 
 // ---------------------------------------------------------------------------------------
-// Text helpers
-
-struct Line {
-  std::string_view text;
-  int number;  // 1-based
-};
-
-std::vector<Line> split_lines(std::string_view text) {
-  std::vector<Line> lines;
-  int number = 0;
-  while (!text.empty()) {
-    const std::size_t end = text.find('\n');
-    std::string_view line = text.substr(0, end);
-    if (!line.empty() && line.back() == '\r') line.remove_suffix(1);
-    lines.push_back({line, ++number});
-    if (end == std::string_view::npos) break;
-    text.remove_prefix(end + 1);
-  }
-  return lines;
-}
-
-std::string_view trim(std::string_view s) {
-  const std::size_t first = s.find_first_not_of(" \t");
-  if (first == std::string_view::npos) return {};
-  const std::size_t last = s.find_last_not_of(" \t");
-  return s.substr(first, last - first + 1);
-}
-
-// A blank line or a comment ('!' in NASA's files, '#' in ours) between records.
-bool is_comment_line(std::string_view s) {
-  s = trim(s);
-  return s.empty() || s.front() == '!' || s.front() == '#';
-}
-
-std::vector<std::string_view> split_words(std::string_view s) {
-  std::vector<std::string_view> words;
-  while (true) {
-    s = trim(s);
-    if (s.empty()) return words;
-    const std::size_t end = s.find_first_of(" \t");
-    words.push_back(s.substr(0, end));
-    if (end == std::string_view::npos) return words;
-    s.remove_prefix(end);
-  }
-}
-
-std::string first_word_upper(std::string_view s) {
-  const auto words = split_words(s);
-  std::string word = words.empty() ? std::string() : std::string(words.front());
-  for (char& c : word) c = static_cast<char>(std::toupper(static_cast<unsigned char>(c)));
-  return word;
-}
+// Text helpers (the line splitting, trimming and number parsing are in text_lines.hpp)
 
 // Columns first..last (1-based, inclusive) of a fixed-column line; a short line reads as blanks.
 std::string_view columns(std::string_view line, std::size_t first, std::size_t last) {
   if (line.size() < first) return {};
   return line.substr(first - 1, std::min(last, line.size()) - (first - 1));
-}
-
-// A whole field as a finite number; Fortran's D exponent and a leading '+' are accepted.
-std::optional<double> parse_number(std::string_view field) {
-  field = trim(field);
-  char buffer[64];
-  if (field.empty() || field.size() >= sizeof buffer) return std::nullopt;
-  std::size_t n = 0;
-  for (char c : field) buffer[n++] = (c == 'D' || c == 'd') ? 'e' : c;
-  const char* begin = buffer;
-  const char* end = buffer + n;
-  if (*begin == '+') {
-    ++begin;  // std::from_chars refuses a leading '+'
-    if (begin == end || *begin == '-' || *begin == '+') return std::nullopt;
-  }
-  double value = 0;
-  const auto [stop, error] = std::from_chars(begin, end, value);
-  if (error != std::errc() || stop != end || !std::isfinite(value)) return std::nullopt;
-  return value;
-}
-
-[[noreturn]] void fail(const std::string& origin, int line, const std::string& what) {
-  throw Error(ErrorKind::bad_input, fmt::format("{}:{}: {}", origin, line, what));
 }
 
 // The number in columns first..last (1-based, inclusive) of a fixed-column record line;

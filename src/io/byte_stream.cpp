@@ -5,10 +5,8 @@
 #include <unistd.h>
 
 #include <cerrno>
-#include <cstdio>
 #include <cstring>
 #include <utility>
-#include <vector>
 
 #include <fmt/format.h>
 
@@ -72,56 +70,45 @@ void FdSink::write(std::string_view bytes) {
   }
 }
 
-AtomicFileSink::AtomicFileSink(std::string path) : path_(std::move(path)) {
-  std::vector<char> name(path_.begin(), path_.end());
-  const char suffix[] = ".XXXXXX";
-  name.insert(name.end(), suffix, suffix + sizeof suffix);  // with its terminating NUL
-  fd_ = ::mkstemp(name.data());
-  if (fd_ < 0) {
-    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write: {}", path_, std::strerror(errno)));
-  }
-  temp_.assign(name.data());
+ByteSink& standard_output() {
+  static FdSink out(STDOUT_FILENO, "standard output");
+  return out;
 }
 
-AtomicFileSink::~AtomicFileSink() {
-  if (fd_ >= 0) {
-    ::close(fd_);
-    ::unlink(temp_.c_str());
-  }
+SinkStream::Buffer::Buffer(ByteSink& sink) : sink_(sink), data_(64 * 1024, '\0') {
+  setp(data_.data(), data_.data() + data_.size());
 }
 
-void AtomicFileSink::fail(const char* step) {
-  const std::string reason = std::strerror(errno);
-  if (fd_ >= 0) ::close(fd_);
-  fd_ = -1;
-  ::unlink(temp_.c_str());
-  throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write ({}): {}", path_, step, reason));
+void SinkStream::Buffer::drain() {
+  const std::size_t n = static_cast<std::size_t>(pptr() - pbase());
+  setp(data_.data(), data_.data() + data_.size());  // emptied even when the sink throws
+  if (n) sink_.write(std::string_view(data_.data(), n));
 }
 
-void AtomicFileSink::write(std::string_view bytes) {
-  if (fd_ < 0) {
-    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write: the file is already closed", path_));
-  }
-  if (!write_all(fd_, bytes)) fail("write");
+int SinkStream::Buffer::sync() {
+  drain();
+  return 0;
 }
 
-void AtomicFileSink::commit() {
-  if (fd_ < 0) {
-    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write: the file is already closed", path_));
+SinkStream::Buffer::int_type SinkStream::Buffer::overflow(int_type c) {
+  drain();
+  if (!traits_type::eq_int_type(c, traits_type::eof())) {
+    *pptr() = traits_type::to_char_type(c);
+    pbump(1);
   }
-  if (::fchmod(fd_, 0644) != 0) fail("permissions");
-  if (::fsync(fd_) != 0) fail("sync");
-  const int fd = fd_;
-  fd_ = -1;
-  if (::close(fd) != 0) {
-    const std::string reason = std::strerror(errno);
-    ::unlink(temp_.c_str());
-    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write (close): {}", path_, reason));
-  }
-  if (std::rename(temp_.c_str(), path_.c_str()) != 0) {
-    const std::string reason = std::strerror(errno);
-    ::unlink(temp_.c_str());
-    throw Error(ErrorKind::bad_input, fmt::format("{}: cannot write (rename): {}", path_, reason));
+  return traits_type::not_eof(c);
+}
+
+SinkStream::SinkStream(ByteSink& sink) : std::ostream(nullptr), buffer_(sink) {
+  rdbuf(&buffer_);
+  exceptions(std::ios::badbit);  // the sink's Error comes out of the operation that met it
+}
+
+SinkStream::~SinkStream() {
+  try {
+    buffer_.pubsync();
+  } catch (...) {
+    // A destructor must not throw; callers that care flush() first.
   }
 }
 

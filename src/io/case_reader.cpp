@@ -1,10 +1,10 @@
 #include "shaftwork/io/case_reader.hpp"
 
+#include <set>
 #include <string_view>
 
 #include <fmt/format.h>
 
-#include "json_keys.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/json_quantity.hpp"
 
@@ -12,30 +12,152 @@ namespace shaftwork::io {
 namespace {
 
 using nlohmann::json;
-using machines::Quantity;
+using machines::Input;
+using machines::InputSpec;
 using units::Dimension;
 
 [[noreturn]] void refuse(const std::string& message) { throw Error(ErrorKind::bad_input, message); }
 
-// An optional sub-object ("inlet", "outlet", "site"): absent or {} is empty.
-const json& section(const json& c, const char* key) {
-  static const json empty = json::object();
-  if (!c.contains(key) || c[key].is_null()) return empty;
-  if (!c[key].is_object()) refuse(fmt::format("{}: expected an object, got {}", key, c[key].type_name()));
-  return c[key];
+// Keys of a case that are not values of kInputs.
+constexpr std::string_view kOtherKeys[] = {kIdKey, kMachineKey, kFluidKey, kNoteKey, kExpectKey};
+
+// The first segment of a dotted key ("inlet" of "inlet.pressure").
+std::string_view head_of(std::string_view key) { return key.substr(0, key.find('.')); }
+
+// True when some case key lies below `prefix` ("site" for "site.barometric_pressure").
+bool is_section(const std::string& prefix) {
+  return std::any_of(machines::kInputs.begin(), machines::kInputs.end(), [&](const InputSpec& s) {
+    return s.key.size() > prefix.size() && s.key.substr(0, prefix.size()) == prefix && s.key[prefix.size()] == '.';
+  });
 }
 
-Dimension dimension_of(Quantity q) {
-  switch (q) {
-    case Quantity::inlet_pressure:
-    case Quantity::outlet_pressure: return Dimension::pressure;
-    case Quantity::inlet_temperature:
-    case Quantity::outlet_temperature: return Dimension::temperature;
-    case Quantity::flow: return Dimension::mass_flow;
-    case Quantity::power: return Dimension::power;
-    case Quantity::efficiency: return Dimension::fraction;
+// Warns of every key of `object` (at dotted path `path`, "" at the top) that no row of
+// kInputs names, nor a section above one, nor (at the top) another case key: a misspelt
+// key must never be silently ignored.
+void warn_unknown_keys(const json& object, const std::string& path, std::vector<std::string>& warnings) {
+  for (const auto& item : object.items()) {
+    const std::string dotted = path.empty() ? item.key() : path + "." + item.key();
+    const bool other = path.empty() && std::find(std::begin(kOtherKeys), std::end(kOtherKeys), dotted) !=
+                                           std::end(kOtherKeys);
+    if (other || machines::find_input(dotted)) continue;
+    if (!is_section(dotted)) {
+      warnings.push_back(fmt::format("unknown key \"{}\" ignored", dotted));
+    } else if (item.value().is_object()) {
+      warn_unknown_keys(item.value(), dotted, warnings);
+    }
   }
-  return Dimension::fraction;
+}
+
+machines::MachineKind read_machine(const json& c, std::string& written) {
+  const std::string key(kMachineKey);
+  if (!c.contains(key)) refuse("machine: missing; give \"compressor\", \"turbine\" or \"pump\"");
+  const json& m = c[key];
+  written = m.is_string() ? m.get<std::string>() : m.dump();
+  if (m == "compressor" || m == "fan") return machines::MachineKind::compressor;
+  if (m == "turbine" || m == "expander") return machines::MachineKind::turbine;
+  if (m == "pump") return machines::MachineKind::pump;
+  refuse(fmt::format("machine: unknown machine {}; give \"compressor\" (or \"fan\"), \"turbine\" (or "
+                     "\"expander\") or \"pump\"",
+                     m.dump()));
+}
+
+// The JSON value at a dotted key, or nullptr. An object on the way that is not an object
+// is an error; "efficiency" as a bare value stands for "efficiency.isentropic".
+const json* value_at(const json& c, const InputSpec& s) {
+  const json* at = &c;
+  std::string_view rest = s.key;
+  std::string walked;
+  for (auto dot = rest.find('.'); dot != std::string_view::npos; dot = rest.find('.')) {
+    const std::string name(rest.substr(0, dot));
+    walked += walked.empty() ? name : "." + name;
+    if (!at->contains(name) || (*at)[name].is_null()) return nullptr;
+    at = &(*at)[name];
+    rest.remove_prefix(dot + 1);
+    if (!at->is_object()) {
+      if (s.input == Input::efficiency_isentropic) return at;  // "efficiency": 0.82
+      if (s.input == Input::efficiency_polytropic) return nullptr;
+      refuse(fmt::format("{}: expected an object, got {}", walked, at->type_name()));
+    }
+  }
+  const std::string leaf(rest);
+  if (!at->contains(leaf) || (*at)[leaf].is_null()) return nullptr;
+  return &(*at)[leaf];
+}
+
+// A pump head is a height ("85 m") or an energy per mass ("0.83 kJ/kg"): its unit tells.
+Dimension head_dimension(const json& value, const std::string& path, const units::ParseContext& context,
+                         units::ParseNotes& notes) {
+  static constexpr Dimension kForms[] = {Dimension::length, Dimension::specific_energy};
+  try {
+    return units::parse_any(value.get<std::string>(), kForms, path, context, notes).dimension;
+  } catch (const Error& e) {
+    throw e.with_context(path);
+  }
+}
+
+GivenValue read_given(const InputSpec& s, const json& value, const std::string& path,
+                      const units::ParseContext& context, units::ParseNotes& notes) {
+  const Dimension d = s.input == Input::head && value.is_string() ? head_dimension(value, path, context, notes)
+                                                                  : s.dimension;
+  const ReadQuantity q = read_quantity(value, d, path, context, notes);
+  GivenValue g;
+  g.input = s.input;
+  g.si = d == Dimension::length ? q.si * units::kStandardGravity : q.si;
+  g.unit = q.unit;
+  const units::UnitInfo* unit = q.unit.empty() ? nullptr : units::find_unit(q.unit);
+  g.on_barometer = unit && unit->gauge;
+  // A plain number is SI: echoed with its unit ("101325 Pa").
+  const std::string_view si = si_symbol(d);
+  g.written = value.is_string() ? value.get<std::string>() : si.empty() ? value.dump() : value.dump() + " " + std::string(si);
+  const std::string problem = given_value_problem(s.input, g.si, g.unit);
+  if (!problem.empty()) refuse(fmt::format("{}: {}", path, problem));
+  return g;
+}
+
+// The site's values, which the others are read against: the barometer and the standard
+// conditions (both of them, or neither).
+units::ParseContext read_site(const json& c, CaseInput& out, units::ParseNotes& notes) {
+  units::ParseContext context;
+  for (const InputSpec& s : machines::kInputs) {
+    if (s.field) continue;
+    const json* v = value_at(c, s);
+    if (!v) continue;
+    GivenValue g = read_given(s, *v, std::string(s.key), context, notes);
+    if (s.input == Input::barometric_pressure) context.barometric_pressure = g.si;
+    out.given.push_back(std::move(g));
+  }
+  const GivenValue* p = out.find(Input::standard_pressure);
+  const GivenValue* T = out.find(Input::standard_temperature);
+  if ((p == nullptr) != (T == nullptr)) {
+    refuse("site.standard_conditions: give both pressure and temperature");
+  }
+  if (p) {
+    if (p->on_barometer) refuse("site.standard_conditions.pressure: an absolute pressure: not a gauge unit");
+    context.standard_conditions = units::StandardConditions{p->si, T->si};
+  }
+  return context;
+}
+
+void read_values(const json& c, CaseInput& out) {
+  units::ParseNotes notes;
+  const units::ParseContext context = read_site(c, out, notes);
+  for (const InputSpec& s : machines::kInputs) {
+    if (!s.field) continue;
+    const json* v = value_at(c, s);
+    if (!v) continue;
+    // "efficiency": 0.82 is named as written in messages.
+    const bool shorthand = s.input == Input::efficiency_isentropic && !c[std::string(head_of(s.key))].is_object();
+    out.given.push_back(read_given(s, *v, std::string(shorthand ? head_of(s.key) : s.key), context, notes));
+  }
+  // The barometer was read first; it belongs at its place in the table's order.
+  std::stable_sort(out.given.begin(), out.given.end(),
+                   [](const GivenValue& a, const GivenValue& b) { return a.input < b.input; });
+  if (notes.used_default_barometer) out.warnings.emplace_back(kDefaultBarometerWarning);
+  if (notes.absolute_water_column) {
+    out.warnings.emplace_back("a water column (inH2O, mmH2O) was read as an absolute pressure; a reading against the "
+                              "barometer is written inH2Og or mmH2Og");
+  }
+  if (notes.standard_reference) out.standard_reference = units::describe(*notes.standard_reference);
 }
 
 }  // namespace
@@ -52,7 +174,7 @@ std::vector<const json*> case_objects(const json& document, const std::string& o
     for (const json& c : cases) out.push_back(&c);
     return out;
   }
-  if (!document.contains("machine")) {
+  if (!document.contains(std::string(kMachineKey))) {
     refuse(fmt::format("{}: not a case file: expected \"cases\" or a case with \"machine\"", origin));
   }
   out.push_back(&document);
@@ -60,181 +182,59 @@ std::vector<const json*> case_objects(const json& document, const std::string& o
 }
 
 std::string case_label(const json& c, size_t index) {
-  if (c.is_object() && c.contains("id")) {
-    if (c["id"].is_string()) return c["id"].get<std::string>();
-    if (c["id"].is_number()) return c["id"].dump();
+  const std::string id(kIdKey);
+  if (c.is_object() && c.contains(id)) {
+    if (c[id].is_string()) return c[id].get<std::string>();
+    if (c[id].is_number()) return c[id].dump();
   }
   return fmt::format("case {}", index + 1);
 }
 
-machines::ValueEcho make_value_echo(std::map<machines::Quantity, std::string> unit_written,
-                                    double barometric_pressure) {
-  return [written = std::move(unit_written), barometer = barometric_pressure](Quantity q, double si) {
-    auto it = written.find(q);
-    if (it != written.end() && !it->second.empty() && it->second != "%") {
-      try {
-        return fmt::format("{:.6g} {}", units::from_si(si, it->second, dimension_of(q), barometer), it->second);
-      } catch (const Error&) {
-      }
-    }
-    switch (q) {
-      case Quantity::inlet_pressure:
-      case Quantity::outlet_pressure: return fmt::format("{:.6g} kPa", si / 1000);
-      case Quantity::inlet_temperature:
-      case Quantity::outlet_temperature: return fmt::format("{:.2f} K", si);
-      case Quantity::flow: return fmt::format("{:.6g} kg/s", si);
-      case Quantity::power: return fmt::format("{:.6g} kW", si / 1000);
-      case Quantity::efficiency: return fmt::format("{:.4f}", si);
-    }
-    return fmt::format("{:.6g}", si);
-  };
+const InputSpec* find_case_input(std::string_view key) {
+  if (key == machines::quantity_key(machines::Quantity::efficiency)) return &machines::spec(Input::efficiency_isentropic);
+  return machines::find_input(key);
 }
 
-CaseInput read_case(const json& c, size_t index, FluidFactory& fluids) {
+std::string given_value_problem(Input input, double si, std::string_view unit) {
+  std::string problem = machines::value_problem(input, si);
+  if (!problem.empty()) return problem;
+  const bool efficiency = machines::spec(input).dimension == Dimension::fraction && input != Input::inlet_quality &&
+                          input != Input::outlet_quality;
+  if (efficiency && unit == "%" && si < 0.01) {
+    return fmt::format("{:g} % is implausible for an efficiency: write {:g} % (or the fraction {:g} without a unit)",
+                       100 * si, 1e4 * si, 100 * si);
+  }
+  if (input == Input::barometric_pressure) {
+    const units::UnitInfo* u = units::find_unit(unit);
+    if (u && u->gauge) {
+      return fmt::format("the barometer is an absolute pressure: give it in kPa, mbar, bar or inHg, not {}", unit);
+    }
+  }
+  return {};
+}
+
+CaseInput read_case(const json& c, size_t index, FluidFactory& fluids, const std::string& origin) {
   if (!c.is_object()) refuse(fmt::format("expected a case object, got {}", c.type_name()));
+  const std::string id(kIdKey);
+  if (c.contains(id) && !c[id].is_string() && !c[id].is_number()) {
+    refuse(fmt::format("id: must be a string or a number, got {}", c[id].type_name()));
+  }
   CaseInput out;
   out.id = case_label(c, index);
-  detail::warn_unknown_keys(c,
-                    {"id", "machine", "fluid", "inlet", "outlet", "mass_flow", "volume_flow",
-                     "standard_volume_flow", "power", "efficiency", "mechanical_efficiency", "head", "site",
-                     "note"},
-                    "", out.warnings);
-
-  machines::RatingInput& r = out.rating;
-  // machine
-  if (!c.contains("machine")) refuse("machine: missing; give \"compressor\", \"turbine\" or \"pump\"");
-  const json& machine = c["machine"];
-  if (machine == "compressor" || machine == "fan") {
-    r.machine = machines::MachineKind::compressor;
-  } else if (machine == "turbine" || machine == "expander") {
-    r.machine = machines::MachineKind::turbine;
-  } else if (machine == "pump") {
-    r.machine = machines::MachineKind::pump;
-  } else {
-    refuse(fmt::format("machine: unknown machine {}; give \"compressor\", \"turbine\" or \"pump\"", machine.dump()));
-  }
-
-  // site first: gauge pressures need the barometer.
-  const json& site = section(c, "site");
-  detail::warn_unknown_keys(site, {"barometric_pressure"}, "site.", out.warnings);
-  units::ParseContext context;
-  units::ParseNotes notes;
-  if (site.contains("barometric_pressure")) {
-    context.barometric_pressure =
-        read_quantity(site["barometric_pressure"], Dimension::pressure, "site.barometric_pressure", {}, notes).si;
-    out.barometric_pressure = *context.barometric_pressure;
-  }
-
-  // fluid
-  if (!c.contains("fluid")) refuse("fluid: missing; give a fluid name (shaftwork fluids lists them) or object");
-  r.fluid = fluids.make(c["fluid"], "fluid", out.warnings);
-  out.fluid_name = c["fluid"].is_string() ? c["fluid"].get<std::string>() : r.fluid->model_name();
-
-  auto read = [&](const json& value, Dimension d, const std::string& path) {
-    return read_quantity(value, d, path, context, notes);
-  };
-  auto keep = [&](Quantity q, const ReadQuantity& v) {
-    out.unit_written[q] = v.unit;
-    return v.si;
-  };
-
-  const json& inlet = section(c, "inlet");
-  detail::warn_unknown_keys(inlet, {"pressure", "temperature", "enthalpy"}, "inlet.", out.warnings);
-  if (inlet.contains("pressure")) {
-    r.inlet_pressure = keep(Quantity::inlet_pressure, read(inlet["pressure"], Dimension::pressure, "inlet.pressure"));
-  }
-  if (inlet.contains("temperature")) {
-    r.inlet_temperature =
-        keep(Quantity::inlet_temperature, read(inlet["temperature"], Dimension::temperature, "inlet.temperature"));
-  }
-  if (inlet.contains("enthalpy")) {
-    r.inlet_enthalpy = read(inlet["enthalpy"], Dimension::specific_energy, "inlet.enthalpy").si;
-  }
-
-  const json& outlet = section(c, "outlet");
-  detail::warn_unknown_keys(outlet, {"pressure", "temperature", "enthalpy", "quality"}, "outlet.", out.warnings);
-  if (outlet.contains("pressure")) {
-    r.outlet_pressure =
-        keep(Quantity::outlet_pressure, read(outlet["pressure"], Dimension::pressure, "outlet.pressure"));
-  }
-  if (outlet.contains("temperature")) {
-    r.outlet_temperature =
-        keep(Quantity::outlet_temperature, read(outlet["temperature"], Dimension::temperature, "outlet.temperature"));
-  }
-  if (outlet.contains("enthalpy")) {
-    r.outlet_enthalpy = read(outlet["enthalpy"], Dimension::specific_energy, "outlet.enthalpy").si;
-  }
-  if (outlet.contains("quality")) {
-    r.outlet_quality = read(outlet["quality"], Dimension::fraction, "outlet.quality").si;
-  }
-
-  // flow: one of three forms
-  const int flow_forms = c.contains("mass_flow") + c.contains("volume_flow") + c.contains("standard_volume_flow");
-  if (flow_forms > 1) refuse("give one of mass_flow, volume_flow and standard_volume_flow, not several");
-  if (c.contains("mass_flow")) {
-    r.flow = machines::Flow{machines::Flow::Kind::mass,
-                            keep(Quantity::flow, read(c["mass_flow"], Dimension::mass_flow, "mass_flow"))};
-  } else if (c.contains("volume_flow")) {
-    r.flow = machines::Flow{machines::Flow::Kind::actual_volume,
-                            read(c["volume_flow"], Dimension::volume_flow, "volume_flow").si};
-  } else if (c.contains("standard_volume_flow")) {
-    r.flow = machines::Flow{machines::Flow::Kind::molar,
-                            read(c["standard_volume_flow"], Dimension::standard_volume_flow, "standard_volume_flow").si};
-  }
-
-  if (c.contains("power")) r.power = keep(Quantity::power, read(c["power"], Dimension::power, "power"));
-
-  if (c.contains("efficiency")) {
-    const json& e = c["efficiency"];
-    machines::Efficiency eff;
-    std::string path = "efficiency";
-    const json* value = &e;
-    if (e.is_object()) {
-      detail::warn_unknown_keys(e, {"isentropic", "polytropic"}, "efficiency.", out.warnings);
-      if (e.contains("isentropic") == e.contains("polytropic")) {
-        refuse("efficiency: give one of \"isentropic\" and \"polytropic\"");
-      }
-      eff.basis = e.contains("isentropic") ? machines::EfficiencyBasis::isentropic
-                                           : machines::EfficiencyBasis::polytropic;
-      path = e.contains("isentropic") ? "efficiency.isentropic" : "efficiency.polytropic";
-      value = &e[e.contains("isentropic") ? "isentropic" : "polytropic"];
-    }
-    eff.value = keep(Quantity::efficiency, read(*value, Dimension::fraction, path));
-    if (!(eff.value > 0 && eff.value <= 1)) {
-      refuse(fmt::format("{}: must be above 0 and at most 1 (or 100 %), got {:.6g}", path, eff.value));
-    }
-    r.efficiency = eff;
-  }
-
-  if (c.contains("mechanical_efficiency")) {
-    r.mechanical_efficiency = read(c["mechanical_efficiency"], Dimension::fraction, "mechanical_efficiency").si;
-    if (!(r.mechanical_efficiency > 0 && r.mechanical_efficiency <= 1)) {
-      refuse(fmt::format("mechanical_efficiency: must be above 0 and at most 1, got {:.6g}", r.mechanical_efficiency));
-    }
-  }
-
-  if (c.contains("head")) {
-    const json& h = c["head"];
-    if (h.is_string()) {
-      // A height ("85 m", "280 ft") or an energy per mass ("0.83 kJ/kg").
-      try {
-        units::ParseNotes ignored;
-        r.pump_head = units::parse(h.get<std::string>(), Dimension::length, context, ignored) *
-                      units::kStandardGravity;
-      } catch (const Error&) {
-        r.pump_head = read(h, Dimension::specific_energy, "head").si;
-      }
-    } else {
-      r.pump_head = read(h, Dimension::specific_energy, "head").si;
-    }
-  }
-
-  if (notes.used_default_barometer) {
-    out.warnings.emplace_back(kDefaultBarometerWarning);
-  }
-
-  // Messages echo values in the units the user wrote them in.
-  r.echo = make_value_echo(out.unit_written, out.barometric_pressure);
+  out.origin = origin;
+  warn_unknown_keys(c, "", out.warnings);
+  out.machine = read_machine(c, out.machine_written);
+  const std::string fluid(kFluidKey);
+  if (!c.contains(fluid)) refuse("fluid: missing; give a fluid name (shaftwork fluids lists them) or object");
+  read_values(c, out);
+  // A moist gas takes its water content at the inlet state.
+  const GivenValue* p1 = out.find(Input::inlet_pressure);
+  const GivenValue* T1 = out.find(Input::inlet_temperature);
+  const FluidSite site{p1 ? std::optional<double>(p1->si) : std::nullopt,
+                       T1 ? std::optional<double>(T1->si) : std::nullopt};
+  out.fluid = fluids.make(c[fluid], fluid, out.warnings, site);
+  out.fluid_label = fluids.label(c[fluid], *out.fluid);
+  if (const std::string problem = machines::input_problem(to_rating_input(out)); !problem.empty()) refuse(problem);
   return out;
 }
 

@@ -115,132 +115,122 @@ bool CsvChunker::next(CsvChunk& chunk) {
 CsvRecordParser::CsvRecordParser(std::string& text, std::size_t first_line)
     : data_(text.data()), size_(text.size()), line_(first_line) {}
 
-bool CsvRecordParser::next(CsvRecord& record) {
-  record.fields.clear();
-  record.error.clear();
-  record.text = {};
-  // Skip empty lines.
-  for (;;) {
-    if (pos_ >= size_) return false;
+bool CsvRecordParser::skip_empty_lines() {
+  while (pos_ < size_) {
     if (data_[pos_] == '\n') {
       ++pos_;
-      ++line_;
     } else if (data_[pos_] == '\r' && pos_ + 1 < size_ && data_[pos_ + 1] == '\n') {
       pos_ += 2;
-      ++line_;
     } else {
-      break;
-    }
-  }
-  record.line = line_;
-
-  // The common record, without quotes, split in one pass; at the first quote, the
-  // general path below starts again from the record's beginning.
-  {
-    std::size_t i = pos_;
-    std::size_t field_start = pos_;
-    bool quoted = false;
-    for (; i < size_; ++i) {
-      while (i < size_ && !kSpecial[static_cast<unsigned char>(data_[i])]) ++i;  // plain bytes
-      if (i == size_) break;
-      const char c = data_[i];
-      if (c == ',') {
-        record.fields.emplace_back(data_ + field_start, i - field_start);
-        field_start = i + 1;
-      } else if (c == '\n') {
-        break;
-      } else if (c == '"') {
-        quoted = true;
-        break;
-      }
-    }
-    if (!quoted) {
-      std::size_t stop = i;
-      if (stop > field_start && data_[stop - 1] == '\r') --stop;
-      record.fields.emplace_back(data_ + field_start, stop - field_start);
-      record.has_quotes = false;
-      record.text = std::string_view(data_ + pos_, std::max(stop, field_start) - pos_);
-      pos_ = i < size_ ? i + 1 : i;
-      ++line_;
       return true;
     }
-    record.fields.clear();
+    ++line_;
   }
+  return false;
+}
 
-  // The record's extent by the quote-parity rule, and the lines it covers.
+bool CsvRecordParser::next_plain(CsvRecord& record) {
+  std::size_t i = pos_;
+  std::size_t field_start = pos_;
+  for (; i < size_; ++i) {
+    while (i < size_ && !kSpecial[static_cast<unsigned char>(data_[i])]) ++i;  // plain bytes
+    if (i == size_) break;
+    const char c = data_[i];
+    if (c == ',') {
+      record.fields.emplace_back(data_ + field_start, i - field_start);
+      field_start = i + 1;
+    } else if (c == '\n') {
+      break;
+    } else if (c == '"') {
+      record.fields.clear();
+      return false;
+    }
+  }
+  std::size_t stop = i;
+  if (stop > field_start && data_[stop - 1] == '\r') --stop;
+  record.fields.emplace_back(data_ + field_start, stop - field_start);
+  record.has_quotes = false;
+  record.text = std::string_view(data_ + pos_, std::max(stop, field_start) - pos_);
+  pos_ = i < size_ ? i + 1 : i;
+  ++line_;
+  return true;
+}
+
+std::size_t CsvRecordParser::take_quoted_extent(CsvRecord& record) {
   std::size_t end = pos_;
   bool in_quotes = false;
-  bool has_quotes = false;
   std::size_t newlines = 0;
-  while (end < size_) {
+  for (; end < size_; ++end) {
     const char c = data_[end];
     if (c == '"') {
       in_quotes = !in_quotes;
-      has_quotes = true;
     } else if (c == '\n') {
       if (!in_quotes) break;
       ++newlines;
     }
-    ++end;
   }
-  const std::size_t next_pos = end < size_ ? end + 1 : end;
   std::size_t stop = end;  // the record's text is [pos_, stop)
   if (stop > pos_ && data_[stop - 1] == '\r' && !in_quotes) --stop;
-  const std::size_t start = pos_;
-  pos_ = next_pos;
+  pos_ = end < size_ ? end + 1 : end;
   line_ += newlines + (end < size_ ? 1 : 0);
-  record.has_quotes = has_quotes;
-  if (!has_quotes) record.text = std::string_view(data_ + start, stop - start);
+  record.has_quotes = true;
+  return stop;
+}
 
-  // Split into fields, unquoting in place.
-  std::size_t i = start;
+void CsvRecordParser::split_quoted(CsvRecord& record, std::size_t i, std::size_t stop) {
+  auto fail = [&](std::string message) {
+    record.fields.clear();
+    record.error = std::move(message);
+  };
   for (;;) {
     const std::size_t field_number = record.fields.size() + 1;
-    if (i < stop && data_[i] == '"') {
+    if (i < stop && data_[i] == '"') {  // quoted: unquote in place
       char* out = data_ + i;
       const char* const begin = out;
       std::size_t j = i + 1;
       bool closed = false;
-      while (j < stop) {
-        if (data_[j] == '"') {
-          if (j + 1 < stop && data_[j + 1] == '"') {
-            *out++ = '"';
-            j += 2;
-            continue;
-          }
+      while (j < stop && !closed) {
+        if (data_[j] != '"') {
+          *out++ = data_[j++];
+        } else if (j + 1 < stop && data_[j + 1] == '"') {
+          *out++ = '"';
+          j += 2;
+        } else {
           closed = true;
           ++j;
-          break;
         }
-        *out++ = data_[j++];
       }
-      if (!closed) {
-        record.fields.clear();
-        record.error = fmt::format("the quoted field {} is not closed before the end of the input", field_number);
-        return true;
-      }
+      if (!closed) return fail(fmt::format("the quoted field {} is not closed before the end of the input", field_number));
       record.fields.emplace_back(begin, static_cast<std::size_t>(out - begin));
-      if (j == stop) break;
-      if (data_[j] != ',') {
-        record.fields.clear();
-        record.error = fmt::format("text after the closing quote of field {}", field_number);
-        return true;
-      }
+      if (j == stop) return;
+      if (data_[j] != ',') return fail(fmt::format("text after the closing quote of field {}", field_number));
       i = j + 1;
     } else {
       std::size_t j = i;
       while (j < stop && data_[j] != ',' && data_[j] != '"') ++j;
       if (j < stop && data_[j] == '"') {
-        record.fields.clear();
-        record.error = fmt::format(
-            "a quote inside the unquoted field {}; quote the whole field and double the quote (\"\")", field_number);
-        return true;
+        return fail(fmt::format(
+            "a quote inside the unquoted field {}; quote the whole field and double the quote (\"\")", field_number));
       }
       record.fields.emplace_back(data_ + i, j - i);
-      if (j == stop) break;
+      if (j == stop) return;
       i = j + 1;
     }
   }
+}
+
+bool CsvRecordParser::next(CsvRecord& record) {
+  record.fields.clear();
+  record.error.clear();
+  record.text = {};
+  if (!skip_empty_lines()) return false;
+  record.line = line_;
+  // The common record, without quotes, is split in one pass; at its first quote the
+  // general path starts again from the record's beginning.
+  if (next_plain(record)) return true;
+  const std::size_t start = pos_;
+  const std::size_t stop = take_quoted_extent(record);
+  split_quoted(record, start, stop);
   return true;
 }
 

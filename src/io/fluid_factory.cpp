@@ -1,16 +1,15 @@
 #include "shaftwork/io/fluid_factory.hpp"
 
+#include <cmath>
 #include <sstream>
 #include <string_view>
 
 #include <fmt/format.h>
 #include <fmt/ranges.h>
 
+#include "fluid_builders.hpp"
 #include "json_keys.hpp"
 #include "shaftwork/error.hpp"
-#include "shaftwork/fluids/constant_cp.hpp"
-#include "shaftwork/fluids/iapws_if97.hpp"
-#include "shaftwork/fluids/incompressible.hpp"
 #include "shaftwork/io/json_quantity.hpp"
 #include "shaftwork/io/text_file.hpp"
 
@@ -77,83 +76,20 @@ SpeciesFileFormat species_file_format(std::string_view text) {
   return SpeciesFileFormat::nasa9;
 }
 
-double read_number(const json& object, const char* key, units::Dimension d, const std::string& path) {
-  units::ParseNotes notes;
-  return read_quantity(object.at(key), d, path + "." + key, {}, notes).si;
-}
-
-std::shared_ptr<const fluids::FluidModel> make_constant_cp(const json& j, const std::string& path) {
-  fluids::ConstantCpInputs in;
-  if (j.contains("cp")) in.cp = read_number(j, "cp", units::Dimension::specific_heat, path);
-  if (j.contains("cv")) in.cv = read_number(j, "cv", units::Dimension::specific_heat, path);
-  if (j.contains("k")) in.k = read_number(j, "k", units::Dimension::fraction, path);
-  if (j.contains("R")) in.R = read_number(j, "R", units::Dimension::specific_heat, path);
-  if (j.contains("molar_mass")) in.molar_mass = read_number(j, "molar_mass", units::Dimension::molar_mass, path);
-  try {
-    return std::make_shared<fluids::ConstantCpGas>(in);
-  } catch (const Error& e) {
-    throw e.with_context(path);
-  }
-}
-
-std::shared_ptr<const fluids::FluidModel> make_nasa(const json& j, const std::string& path,
-                                                    const fluids::SpeciesLibrary& library,
-                                                    std::vector<std::string>& warnings) {
-  auto species_named = [&](const std::string& name, const std::string& where) {
-    const fluids::NasaSpecies* sp = library.find(name);
-    if (!sp) {
-      refuse(fmt::format("{}: unknown species \"{}\" (shaftwork fluids lists the species; a NASA "
-                         "9-coefficient file may add more with --species-file)",
-                         where, name));
-    }
-    return sp;
-  };
-  std::vector<fluids::Component> components;
-  fluids::CompositionBasis basis = fluids::CompositionBasis::mole;
-  if (j.contains("species") == j.contains("mixture")) {
-    refuse(fmt::format("{}: a nasa-polynomial fluid needs \"species\" or \"mixture\", one of them", path));
-  }
-  if (j.contains("species")) {
-    if (!j["species"].is_string()) refuse(fmt::format("{}.species: expected a species name", path));
-    components.push_back({species_named(j["species"].get<std::string>(), path + ".species"), 1.0});
-  } else {
-    const json& mix = j["mixture"];
-    if (!mix.is_object() || mix.empty()) {
-      refuse(fmt::format("{}.mixture: expected an object of species and fractions", path));
-    }
-    for (const auto& [name, value] : mix.items()) {
-      units::ParseNotes notes;
-      const double x = read_quantity(value, units::Dimension::fraction, path + ".mixture." + name, {}, notes).si;
-      components.push_back({species_named(name, path + ".mixture"), x});
-    }
-    if (j.contains("basis")) {
-      const json& b = j["basis"];
-      if (b == "mole") {
-        basis = fluids::CompositionBasis::mole;
-      } else if (b == "mass") {
-        basis = fluids::CompositionBasis::mass;
-      } else {
-        refuse(fmt::format("{}.basis: expected \"mole\" or \"mass\", got {}", path, b.dump()));
-      }
-    }
-  }
-  try {
-    auto gas = std::make_shared<fluids::NasaPolynomialGas>(components, basis);
-    if (gas->renormalised()) {
-      warnings.push_back(fmt::format("{}.mixture: the fractions add up to {:.6g}; scaled to sum to 1", path,
-                                     gas->given_sum()));
-    }
-    return gas;
-  } catch (const Error& e) {
-    throw e.with_context(path);
-  }
-}
-
 }  // namespace
 
 const std::vector<NamedFluid>& named_fluids() {
   static const std::vector<NamedFluid> fluids = parse_named_fluids(fluids::embedded_data("fluids.txt"));
   return fluids;
+}
+
+std::vector<FluidModelInfo> fluid_models() {
+  std::vector<FluidModelInfo> out;
+  for (const detail::ModelEntry& m : detail::models()) {
+    out.push_back({std::string(m.name), std::vector<std::string>(m.keys.begin(), m.keys.end()),
+                   std::string(m.summary)});
+  }
+  return out;
 }
 
 FluidFactory::FluidFactory()
@@ -171,73 +107,67 @@ void FluidFactory::add_species_file(const std::string& path) {
     // An empty file, or one of condensed phases only: most likely the wrong file.
     refuse(fmt::format("{}: no gas-phase species in the file", path));
   }
+  const std::lock_guard lock(mutex_);
   species_->merge(added);
   cache_.clear();  // definitions may now mean other species
 }
 
+std::string FluidFactory::label(const json& fluid, const fluids::FluidModel& model) {
+  if (fluid.is_string()) return fluid.get<std::string>();
+  if (fluid.is_object() && fluid.contains("species") && fluid["species"].is_string()) {
+    return fluid["species"].get<std::string>();
+  }
+  if (fluid.is_object() && fluid.contains("fluid") && fluid["fluid"].is_string()) {
+    return fluid["fluid"].get<std::string>();
+  }
+  return model.description();
+}
+
 std::shared_ptr<const fluids::FluidModel> FluidFactory::make(const json& fluid, const std::string& path,
-                                                             std::vector<std::string>& warnings) {
+                                                             std::vector<std::string>& warnings, const FluidSite& site) {
+  // A model that depends on the case's state (humid air at a relative humidity) is cached
+  // per state.
   std::string key = fluid.dump();
+  if (site.pressure && site.temperature) key += fmt::format("@{}/{}", *site.pressure, *site.temperature);
+  const std::lock_guard lock(mutex_);
   if (auto it = cache_.find(key); it != cache_.end()) {
     warnings.insert(warnings.end(), it->second.warnings.begin(), it->second.warnings.end());
     return it->second.model;
   }
   std::vector<std::string> own;
-  auto model = build(fluid, path, own);
+  auto model = build(fluid, path, site, own);
   warnings.insert(warnings.end(), own.begin(), own.end());
   cache_.emplace(std::move(key), Built{model, std::move(own)});
   return model;
 }
 
 std::shared_ptr<const fluids::FluidModel> FluidFactory::build(const json& fluid, const std::string& path,
+                                                              const FluidSite& site,
                                                               std::vector<std::string>& warnings) {
   if (fluid.is_string()) {
     const std::string& name = fluid.get_ref<const std::string&>();
     for (const NamedFluid& named : named_fluids()) {
-      if (named.name == name) return build(named.definition, fmt::format("{} (\"{}\")", path, name), warnings);
+      if (named.name == name) return build(named.definition, fmt::format("{} (\"{}\")", path, name), site, warnings);
     }
+    // A species name stands for that species as an ideal gas: "CO2".
+    if (species_->find(name)) return build(json{{"model", "nasa-polynomial"}, {"species", name}}, path, site, warnings);
     std::vector<std::string> known;
     for (const NamedFluid& named : named_fluids()) known.push_back(named.name);
-    refuse(fmt::format("{}: unknown fluid \"{}\"; named fluids are: {}", path, name, fmt::join(known, ", ")));
+    refuse(fmt::format("{}: unknown fluid \"{}\"; named fluids are: {}; any species of shaftwork fluids may be named "
+                       "too",
+                       path, name, fmt::join(known, ", ")));
   }
   if (!fluid.is_object()) {
     refuse(fmt::format("{}: expected a fluid name or an object with a \"model\", got {}", path, fluid.type_name()));
   }
   if (!fluid.contains("model") || !fluid["model"].is_string()) {
-    refuse(fmt::format("{}: a fluid object needs \"model\": one of constant-cp, nasa-polynomial, "
-                       "iapws-if97, incompressible",
-                       path));
+    refuse(fmt::format("{}: a fluid object needs \"model\": one of {}", path, detail::model_names()));
   }
-  const std::string model = fluid["model"].get<std::string>();
-  if (model == "constant-cp") {
-    detail::warn_unknown_keys(fluid, {"model", "cp", "cv", "k", "R", "molar_mass"}, path + ".", warnings);
-    return make_constant_cp(fluid, path);
-  }
-  if (model == "nasa-polynomial") {
-    detail::warn_unknown_keys(fluid, {"model", "species", "mixture", "basis"}, path + ".", warnings);
-    return make_nasa(fluid, path, *species_, warnings);
-  }
-  if (model == "iapws-if97") {
-    detail::warn_unknown_keys(fluid, {"model"}, path + ".", warnings);
-    static const auto water = std::make_shared<const fluids::IapwsIf97>();
-    return water;
-  }
-  if (model == "incompressible") {
-    detail::warn_unknown_keys(fluid, {"model", "density", "cp"}, path + ".", warnings);
-    if (!fluid.contains("density") || !fluid.contains("cp")) {
-      refuse(fmt::format("{}: an incompressible fluid needs \"density\" and \"cp\"", path));
-    }
-    const double rho = read_number(fluid, "density", units::Dimension::density, path);
-    const double cp = read_number(fluid, "cp", units::Dimension::specific_heat, path);
-    try {
-      return std::make_shared<fluids::IncompressibleLiquid>(rho, cp);
-    } catch (const Error& e) {
-      throw e.with_context(path);
-    }
-  }
-  refuse(fmt::format("{}.model: unknown model \"{}\"; models are constant-cp, nasa-polynomial, "
-                     "iapws-if97, incompressible",
-                     path, model));
+  const std::string name = fluid["model"].get<std::string>();
+  const detail::ModelEntry* model = detail::find_model(name);
+  if (!model) refuse(fmt::format("{}.model: unknown model \"{}\"; models are {}", path, name, detail::model_names()));
+  detail::warn_unknown_keys(fluid, model->keys, path + ".", warnings);
+  return model->build(detail::BuildContext{fluid, path, *species_, site, warnings});
 }
 
 }  // namespace shaftwork::io

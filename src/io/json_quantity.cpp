@@ -1,11 +1,11 @@
 #include "shaftwork/io/json_quantity.hpp"
 
-#include <cctype>
 #include <cmath>
 
 #include <fmt/format.h>
 
 #include "shaftwork/error.hpp"
+#include "shaftwork/text.hpp"
 
 namespace shaftwork::io {
 
@@ -17,27 +17,19 @@ ReadQuantity read_quantity(const nlohmann::json& value, units::Dimension d, cons
       throw Error(ErrorKind::bad_input, fmt::format("{}: the number is not finite", path));
     }
     // A plain number is SI: the same checks as "<number> <SI unit>".
+    if (d == units::Dimension::fraction) return {x, ""};
+    if (d == units::Dimension::standard_volume_flow) {
+      throw Error(ErrorKind::bad_input,
+                  fmt::format("{}: a standard volume flow needs its unit, which fixes the reference conditions: "
+                              "Nm3/h, Sm3/h, scfm or MMSCFD",
+                              path));
+    }
+    if (d == units::Dimension::rotational_speed) {
+      throw Error(ErrorKind::bad_input,
+                  fmt::format("{}: a speed needs its unit: rpm, 1/min, rev/s, Hz or rad/s", path));
+    }
     try {
-      const char* si_unit = nullptr;
-      switch (d) {
-        case units::Dimension::pressure: si_unit = "Pa"; break;
-        case units::Dimension::temperature: si_unit = "K"; break;
-        case units::Dimension::mass_flow: si_unit = "kg/s"; break;
-        case units::Dimension::volume_flow: si_unit = "m3/s"; break;
-        case units::Dimension::power: si_unit = "W"; break;
-        case units::Dimension::specific_energy: si_unit = "J/kg"; break;
-        case units::Dimension::length: si_unit = "m"; break;
-        case units::Dimension::specific_heat:
-        case units::Dimension::specific_entropy: si_unit = "J/(kg K)"; break;
-        case units::Dimension::density: si_unit = "kg/m3"; break;
-        case units::Dimension::molar_mass: si_unit = "kg/mol"; break;
-        case units::Dimension::fraction: return {x, ""};
-        case units::Dimension::standard_volume_flow:
-          throw Error(ErrorKind::bad_input,
-                      "a standard volume flow needs its unit, which fixes the reference conditions: "
-                      "Nm3/h, Sm3/h, scfm or MMSCFD");
-      }
-      return {units::to_si(x, si_unit, d, context, notes), ""};
+      return {units::to_si(x, si_symbol(d), d, context, notes), ""};
     } catch (const Error& e) {
       throw e.with_context(path);
     }
@@ -50,17 +42,38 @@ ReadQuantity read_quantity(const nlohmann::json& value, units::Dimension d, cons
   const std::string& text = value.get_ref<const std::string&>();
   try {
     const double si = units::parse(text, d, context, notes);
-    // The unit as written: what follows the number and the spaces.
-    size_t i = 0;
-    while (i < text.size() && std::isspace(static_cast<unsigned char>(text[i]))) ++i;
-    while (i < text.size() && !std::isspace(static_cast<unsigned char>(text[i])) && text[i] != '%') ++i;
-    while (i < text.size() && std::isspace(static_cast<unsigned char>(text[i]))) ++i;
-    size_t end = text.size();
-    while (end > i && std::isspace(static_cast<unsigned char>(text[end - 1]))) --end;
-    return {si, text.substr(i, end - i)};
+    return {si, std::string(unit_written(text))};
   } catch (const Error& e) {
     throw e.with_context(path);
   }
+}
+
+std::string_view si_symbol(units::Dimension d) {
+  switch (d) {
+    case units::Dimension::pressure: return "Pa";
+    case units::Dimension::temperature: return "K";
+    case units::Dimension::mass_flow: return "kg/s";
+    case units::Dimension::volume_flow: return "m3/s";
+    case units::Dimension::power: return "W";
+    case units::Dimension::specific_energy: return "J/kg";
+    case units::Dimension::length: return "m";
+    case units::Dimension::specific_heat:
+    case units::Dimension::specific_entropy: return "J/(kg K)";
+    case units::Dimension::density: return "kg/m3";
+    case units::Dimension::molar_mass: return "kg/mol";
+    case units::Dimension::standard_volume_flow: return "mol/s";
+    case units::Dimension::velocity: return "m/s";
+    case units::Dimension::rotational_speed: return "1/s";
+    case units::Dimension::fraction: return "";
+  }
+  return "";
+}
+
+std::string_view unit_written(std::string_view text) {
+  text = trim(text);
+  std::size_t i = 0;
+  while (i < text.size() && !is_space(text[i]) && text[i] != '%') ++i;
+  return trim(text.substr(i));
 }
 
 }  // namespace shaftwork::io

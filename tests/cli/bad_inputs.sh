@@ -33,6 +33,9 @@ generate() {
       { printf '{"id": 1'; head -c 104857600 /dev/zero | tr '\0' '7'; printf '}\n'; } > "$out" ;;
     deep-nesting)      # 200000 nested arrays
       { head -c 200000 /dev/zero | tr '\0' '['; head -c 200000 /dev/zero | tr '\0' ']'; } > "$out" ;;
+    deep-fluid)        # a case whose fluid is 100000 nested arrays
+      { printf '{"machine": "compressor", "fluid": '; head -c 100000 /dev/zero | tr '\0' '['
+        head -c 100000 /dev/zero | tr '\0' ']'; printf ', "inlet": {"pressure": "1 bar"}}\n'; } > "$out" ;;
     many-cases)        # 20000 cases of which one is bad
       python3 - "$out" <<'PY'
 import json, sys

@@ -69,14 +69,21 @@ expect "-o exits 0" $?
 [ ! -s "$tmp/o.stdout" ] && cmp -s "$tmp/out.csv" "$tmp/good.out"
 expect "-o holds the results" $?
 # A header that cannot be used: exit 2, the old file untouched, no temporary left.
-printf 'id,inlet.presure [barg]\n1,2\n' >"$tmp/badhead.csv"
+printf 'id,inlet.pressure [degC]\n1,2\n' >"$tmp/badhead.csv"
 echo "previous" >"$tmp/keep.csv"
 "$bin" rate "$tmp/badhead.csv" --case "$template" -o "$tmp/keep.csv" 2>"$tmp/badhead.err"
-expect "an unknown column exits 2" $([ $? -eq 2 ]; echo $?)
-grep -qF "badhead.csv: line 1, column 2 \"inlet.presure [barg]\": unknown key \"inlet.presure\"" "$tmp/badhead.err"
-expect "the unknown column is named" $? "$(cat "$tmp/badhead.err")"
+expect "a unit of another dimension exits 2" $([ $? -eq 2 ]; echo $?)
+grep -qF "badhead.csv: line 1, column 2 \"inlet.pressure [degC]\": a temperature unit where a pressure belongs" "$tmp/badhead.err"
+expect "the column is named" $? "$(cat "$tmp/badhead.err")"
 [ "$(cat "$tmp/keep.csv")" = "previous" ] && [ -z "$(ls "$tmp" | grep 'keep.csv.')" ]
 expect "-o left the old file as it was and no temporary file" $?
+# A column that names no case key (a misspelt one, a logger's tag) is carried through with a notice.
+printf 'timestamp,id,inlet.presure [barg]\n08:00,1,2\n' >"$tmp/extra.csv"
+"$bin" rate "$tmp/extra.csv" --case "$template" >"$tmp/extra.out" 2>"$tmp/extra.err"
+grep -qxF "notice: $tmp/extra.csv: column 3 \"inlet.presure [barg]\" names no case key: carried through unchanged (did you mean inlet.pressure?)" "$tmp/extra.err"
+expect "a column that names no case key gets a notice" $? "$(cat "$tmp/extra.err")"
+head -n 1 "$tmp/extra.out" | grep -q '^timestamp,id,inlet.presure \[barg\],status,error,'
+expect "the carried columns keep their place" $? "$(head -n 1 "$tmp/extra.out")"
 # A column without a unit for a dimensional key.
 printf 'id,outlet.temperature\nA,150\n' >"$tmp/nounit.csv"
 "$bin" rate "$tmp/nounit.csv" --case "$template" >/dev/null 2>"$tmp/nounit.err"

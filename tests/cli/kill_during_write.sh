@@ -2,7 +2,7 @@
 # -o FILE is written whole or not at all: SIGKILL the program while it writes and the file
 # from before must still be there, byte for byte. Two writers: a CSV batch (streamed into a
 # temporary file beside FILE while the rows are rated) and a JSON case file of many cases
-# (written at the end through io::write_file_atomically). Each is killed at several moments;
+# (rated first, then written in one go). Both go through io::OutputFile. Each is killed at several moments;
 # after every kill FILE holds either the earlier content or, when the run had already
 # finished, the complete new output, never a part of it.
 # Run by ctest from the repository root as: bash tests/cli/kill_during_write.sh <shaftwork binary>

@@ -35,8 +35,11 @@ expect "json results carry the contract keys" $?
 # Standard input.
 "$bin" rate --format json - <examples/design-cases.json >"$tmp/stdin.json"
 expect "rate - reads standard input" $?
-cmp -s "$tmp/stdin.json" <("$bin" rate --format json examples/design-cases.json)
+# The same results; each names where it came from.
+cmp -s <(grep -v '"file":' "$tmp/stdin.json") <("$bin" rate --format json examples/design-cases.json | grep -v '"file":')
 expect "stdin and file give the same output" $?
+grep -q '"file": "standard input"' "$tmp/stdin.json"
+expect "results from standard input say so" $?
 
 # One bad case among good ones: exit 1, the good ones still rated, the bad one named.
 cat >"$tmp/mixed.json" <<'JSON'
@@ -70,7 +73,7 @@ expect "missing file message" $?
 # -o writes the whole output to the file and nothing to stdout.
 "$bin" rate --format json -o "$tmp/out.json" examples/design-cases.json >"$tmp/o.stdout"
 expect "-o exits 0" $?
-[ ! -s "$tmp/o.stdout" ] && cmp -s "$tmp/out.json" "$tmp/stdin.json"
+[ ! -s "$tmp/o.stdout" ] && cmp -s "$tmp/out.json" <("$bin" rate --format json examples/design-cases.json)
 expect "-o file holds the results, stdout is empty" $?
 # -o into a directory that does not exist: exit 2, nothing left behind.
 "$bin" rate -o "$tmp/no/such/dir/out.json" examples/design-cases.json 2>"$tmp/odir.err"
@@ -85,9 +88,12 @@ expect "duplicate key message" $?
 
 # A misspelt key is warned about, not silently ignored.
 sed 's/"mechanical_efficiency"/"mechanical_efficency"/' examples/plant-air-compressor.json >"$tmp/typo.json"
-"$bin" rate --format json "$tmp/typo.json" >"$tmp/typo.out"
+"$bin" rate --format json "$tmp/typo.json" >"$tmp/typo.out" 2>"$tmp/typo.err"
 grep -qF 'unknown key \"mechanical_efficency\" ignored' "$tmp/typo.out"
 expect "misspelt key warned" $?
+# Warnings go to standard error too (docs/contract.md), one line each, naming the case.
+grep -qxF 'warning: case "PAC-3 first stage, nameplate check 2026-11-20": unknown key "mechanical_efficency" ignored' "$tmp/typo.err"
+expect "the warning is on standard error, naming the case" $? "$(cat "$tmp/typo.err")"
 
 # US units in the table.
 "$bin" rate --units us examples/plant-air-compressor.json >"$tmp/us.txt"

@@ -7,6 +7,7 @@
 
 #include <catch2/catch.hpp>
 
+#include "error_of.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/fluids/nasa_polynomial.hpp"
 
@@ -19,6 +20,7 @@ using shaftwork::fluids::NasaPolynomialGas;
 using shaftwork::fluids::NasaSpecies;
 using shaftwork::fluids::SpeciesLibrary;
 using shaftwork::fluids::State;
+using shaftwork::test::error_of;
 
 namespace {
 
@@ -82,17 +84,6 @@ ByHand by_hand(const NasaSpecies& sp, double T) {
   const double s = -a[0] * std::pow(T, -2) / 2 - a[1] / T + a[2] * std::log(T) + a[3] * T +
                    a[4] * std::pow(T, 2) / 2 + a[5] * std::pow(T, 3) / 3 + a[6] * std::pow(T, 4) / 4 + in.b2;
   return {cp, h_rt * T, s};
-}
-
-template <class Call>
-Error error_of(Call&& call) {
-  try {
-    call();
-  } catch (const Error& e) {
-    return e;
-  }
-  FAIL("no error was thrown");
-  return Error(ErrorKind::bad_input, "");
 }
 
 // One row of NIST-JANAF Thermochemical Tables, 4th ed. (M. W. Chase, J. Phys. Chem. Ref.

@@ -43,8 +43,8 @@ RatingInput compressor_point() {
   in.inlet_pressure = 100e3;
   in.inlet_temperature = 293.15;
   in.outlet_pressure = 600e3;
-  in.efficiency = machines::Efficiency{EfficiencyBasis::isentropic, 0.82};
-  in.flow = machines::Flow{machines::Flow::Kind::mass, 3.5};
+  in.efficiency_isentropic = 0.82;
+  in.mass_flow = 3.5;
   return in;
 }
 
@@ -59,7 +59,7 @@ TEST_CASE("compressor on a constant-cp gas follows the closed-form ideal-gas rel
   const auto rating = machines::rate(compressor_point());
   CHECK(rating.outlet_isentropic.temperature == Approx(T2s).epsilon(1e-12));
   CHECK(rating.outlet.temperature == Approx(T2).epsilon(1e-12));
-  CHECK(rating.power == Approx(m * cp * (T2 - T1)).epsilon(1e-12));
+  CHECK(*rating.power == Approx(m * cp * (T2 - T1)).epsilon(1e-12));
   CHECK(rating.pressure_ratio == Approx(6.0).epsilon(1e-15));
   CHECK(rating.head_isentropic == Approx(cp * (T2s - T1)).epsilon(1e-12));
   // Polytropic efficiency of a perfect gas: eta_p = ((k-1)/k) ln(p2/p1) / ln(T2/T1).
@@ -78,13 +78,13 @@ TEST_CASE("turbine on a constant-cp gas follows the closed-form relations, polyt
   in.inlet_pressure = 1.2e6;
   in.inlet_temperature = T1;
   in.outlet_pressure = 150e3;
-  in.efficiency = machines::Efficiency{EfficiencyBasis::polytropic, eta_p};
+  in.efficiency_polytropic = eta_p;
   in.power = 2.0e6;
   const auto rating = machines::rate(in);
   // Polytropic expansion of a perfect gas: T2 = T1 (p2/p1)^(eta_p (k-1)/k).
   const double T2 = T1 * std::pow(150e3 / 1.2e6, eta_p * (k - 1) / k);
   CHECK(rating.outlet.temperature == Approx(T2).epsilon(1e-11));
-  CHECK(rating.mass_flow == Approx(2.0e6 / (cp * (T1 - T2))).epsilon(1e-11));
+  CHECK(*rating.mass_flow == Approx(2.0e6 / (cp * (T1 - T2))).epsilon(1e-11));
   CHECK(rating.efficiency_polytropic == Approx(eta_p).epsilon(1e-11));
   CHECK(rating.efficiency_polytropic < rating.efficiency_isentropic);  // expansion
   CHECK(rating.head_polytropic == Approx(cp * (T1 - T2) / eta_p).epsilon(1e-11));
@@ -98,15 +98,15 @@ TEST_CASE("pump on an incompressible liquid: work is v dp / eta") {
   in.inlet_pressure = 150e3;
   in.inlet_temperature = 298.15;
   in.outlet_pressure = 950e3;
-  in.efficiency = machines::Efficiency{EfficiencyBasis::isentropic, 0.74};
-  in.flow = machines::Flow{machines::Flow::Kind::actual_volume, 0.05};  // 180 m3/h
+  in.efficiency_isentropic = 0.74;
+  in.volume_flow = 0.05;  // 180 m3/h
   in.mechanical_efficiency = 0.97;
   const auto r = machines::rate(in);
   const double m = 0.05 * 998.0;
   const double w = (950e3 - 150e3) / 998.0 / 0.74;  // v dp / eta, J/kg
-  CHECK(r.mass_flow == Approx(m).epsilon(1e-14));
-  CHECK(r.fluid_power == Approx(m * w).epsilon(1e-12));
-  CHECK(r.power == Approx(m * w / 0.97).epsilon(1e-12));
+  CHECK(*r.mass_flow == Approx(m).epsilon(1e-14));
+  CHECK(*r.fluid_power == Approx(m * w).epsilon(1e-12));
+  CHECK(*r.power == Approx(m * w / 0.97).epsilon(1e-12));
   CHECK(r.efficiency_polytropic == Approx(0.74).epsilon(1e-12));  // equal for a liquid
   CHECK(*r.head_height == Approx(800e3 / (998.0 * 9.80665)).epsilon(1e-14));
   // Outlet warmer by the lost work: dT = w (1 - eta) / c.
@@ -128,11 +128,11 @@ FullPoint full_point(MachineKind machine, EfficiencyBasis basis) {
   in.inlet_pressure = comp ? 101e3 : 900e3;
   in.inlet_temperature = comp ? 288.0 : 850.0;
   in.outlet_pressure = comp ? 520e3 : 130e3;
-  in.efficiency = machines::Efficiency{basis, 0.84};
-  in.flow = machines::Flow{machines::Flow::Kind::mass, 2.2};
+  machines::set_efficiency(in, basis, 0.84);
+  in.mass_flow = 2.2;
   in.mechanical_efficiency = 0.985;
   const auto r = machines::rate(in);
-  return {*in.inlet_pressure, *in.inlet_temperature, *in.outlet_pressure, r.outlet.temperature, 2.2, r.power, 0.84};
+  return {*in.inlet_pressure, *in.inlet_temperature, *in.outlet_pressure, r.outlet.temperature, 2.2, *r.power, 0.84};
 }
 
 }  // namespace
@@ -155,11 +155,11 @@ TEST_CASE("every solvable pair of unknowns round-trips to 1e-9") {
           if (!drop(Quantity::inlet_temperature)) in.inlet_temperature = f.T1;
           if (!drop(Quantity::outlet_pressure)) in.outlet_pressure = f.p2;
           if (!drop(Quantity::outlet_temperature)) in.outlet_temperature = f.T2;
-          if (!drop(Quantity::flow)) in.flow = machines::Flow{machines::Flow::Kind::mass, f.m};
+          if (!drop(Quantity::flow)) in.mass_flow = f.m;
           if (!drop(Quantity::power)) in.power = f.P;
-          if (!drop(Quantity::efficiency)) in.efficiency = machines::Efficiency{basis, f.eta};
-          const bool unsolvable = (drop(Quantity::flow) && drop(Quantity::power)) ||
-                                  (drop(Quantity::inlet_pressure) && drop(Quantity::outlet_pressure)) ||
+          if (!drop(Quantity::efficiency)) machines::set_efficiency(in, basis, f.eta);
+          const bool unsized = drop(Quantity::flow) && drop(Quantity::power);
+          const bool unsolvable = (drop(Quantity::inlet_pressure) && drop(Quantity::outlet_pressure)) ||
                                   (drop(Quantity::inlet_pressure) && drop(Quantity::efficiency)) ||
                                   (drop(Quantity::outlet_pressure) && drop(Quantity::efficiency));
           INFO(machines::machine_name(machine) << " without " << machines::quantity_key(all[i]) << " and "
@@ -174,18 +174,69 @@ TEST_CASE("every solvable pair of unknowns round-trips to 1e-9") {
           CHECK(r.inlet.temperature == Approx(f.T1).epsilon(1e-9));
           CHECK(r.outlet.pressure == Approx(f.p2).epsilon(1e-9));
           CHECK(r.outlet.temperature == Approx(f.T2).epsilon(1e-9));
-          CHECK(r.mass_flow == Approx(f.m).epsilon(1e-9));
-          CHECK(r.power == Approx(f.P).epsilon(1e-9));
           const double eta = basis == EfficiencyBasis::isentropic ? r.efficiency_isentropic : r.efficiency_polytropic;
           CHECK(eta == Approx(f.eta).epsilon(1e-9));
-          CHECK(r.solved_for.size() == 2);
+          if (unsized) {  // the specific results only: no flow, no power, nothing solved
+            CHECK_FALSE(r.mass_flow);
+            CHECK_FALSE(r.power);
+            CHECK(r.solved_for.empty());
+          } else {
+            CHECK(*r.mass_flow == Approx(f.m).epsilon(1e-9));
+            CHECK(*r.power == Approx(f.P).epsilon(1e-9));
+            CHECK(r.solved_for.size() == 2);
+          }
           ++solved_cases;
         }
       }
     }
   }
-  CHECK(solved_cases == 4 * 17);
-  CHECK(refused_cases == 4 * 4);
+  CHECK(solved_cases == 4 * 18);
+  CHECK(refused_cases == 4 * 3);
+}
+
+TEST_CASE("four knowns: any four of p1, T1, p2, T2 and the efficiency give the specific results") {
+  const Quantity specific[] = {Quantity::inlet_pressure, Quantity::inlet_temperature, Quantity::outlet_pressure,
+                               Quantity::outlet_temperature, Quantity::efficiency};
+  for (MachineKind machine : {MachineKind::compressor, MachineKind::turbine}) {
+    for (EfficiencyBasis basis : {EfficiencyBasis::isentropic, EfficiencyBasis::polytropic}) {
+      const FullPoint f = full_point(machine, basis);
+      const auto full = machines::rate([&] {
+        RatingInput in;
+        in.machine = machine;
+        in.fluid = air_constant_cp();
+        in.inlet_pressure = f.p1;
+        in.inlet_temperature = f.T1;
+        in.outlet_pressure = f.p2;
+        machines::set_efficiency(in, basis, f.eta);
+        return in;
+      }());
+      for (Quantity unknown : specific) {
+        RatingInput in;
+        in.machine = machine;
+        in.fluid = air_constant_cp();
+        if (unknown != Quantity::inlet_pressure) in.inlet_pressure = f.p1;
+        if (unknown != Quantity::inlet_temperature) in.inlet_temperature = f.T1;
+        if (unknown != Quantity::outlet_pressure) in.outlet_pressure = f.p2;
+        if (unknown != Quantity::outlet_temperature) in.outlet_temperature = f.T2;
+        if (unknown != Quantity::efficiency) machines::set_efficiency(in, basis, f.eta);
+        INFO(machines::machine_name(machine) << " without " << machines::quantity_key(unknown));
+        const auto r = machines::rate(in);
+        CHECK(r.solved_for == machines::SolvedFor{unknown});
+        CHECK_FALSE(r.mass_flow);
+        CHECK_FALSE(r.power);
+        CHECK_FALSE(r.fluid_power);
+        CHECK(r.inlet.pressure == Approx(f.p1).epsilon(1e-9));
+        CHECK(r.inlet.temperature == Approx(f.T1).epsilon(1e-9));
+        CHECK(r.outlet.pressure == Approx(f.p2).epsilon(1e-9));
+        CHECK(r.outlet.temperature == Approx(f.T2).epsilon(1e-9));
+        CHECK(r.efficiency_isentropic == Approx(full.efficiency_isentropic).epsilon(1e-9));
+        CHECK(r.efficiency_polytropic == Approx(full.efficiency_polytropic).epsilon(1e-9));
+        CHECK(r.head_polytropic == Approx(full.head_polytropic).epsilon(1e-9));
+        // specific_work is |h2 - h1|: cp (T2 - T1) for a constant-cp gas.
+        CHECK(r.specific_work == Approx(1005.0 * std::fabs(f.T2 - f.T1)).epsilon(1e-9));
+      }
+    }
+  }
 }
 
 TEST_CASE("a full test point reports efficiency from the fluid side and the power balance") {
@@ -198,7 +249,7 @@ TEST_CASE("a full test point reports efficiency from the fluid side and the powe
   in.inlet_temperature = f.T1;
   in.outlet_pressure = f.p2;
   in.outlet_temperature = f.T2;
-  in.flow = machines::Flow{machines::Flow::Kind::mass, f.m};
+  in.mass_flow = f.m;
   in.power = f.P * 1.02;  // the measured power reads 2 % high
   const auto r = machines::rate(in);
   CHECK(r.solved_for == std::vector<std::string>{"efficiency"});
@@ -208,7 +259,7 @@ TEST_CASE("a full test point reports efficiency from the fluid side and the powe
   CHECK(r.power_balance->shaft_power == Approx(f.P).epsilon(1e-12));
   CHECK(r.power_balance->fluid_power == Approx(f.P * 0.985).epsilon(1e-12));
   CHECK(r.power_balance->difference_percent == Approx(100 * (1 / 1.02 - 1)).epsilon(1e-10));
-  CHECK(r.power == Approx(f.P * 1.02));  // the shaft power reported is the one given
+  CHECK(*r.power == Approx(f.P * 1.02));  // the shaft power reported is the one given
 }
 
 TEST_CASE("a redundant efficiency is reported against the one from the temperatures") {
@@ -220,14 +271,19 @@ TEST_CASE("a redundant efficiency is reported against the one from the temperatu
   in.inlet_temperature = f.T1;
   in.outlet_pressure = f.p2;
   in.outlet_temperature = f.T2;
-  in.flow = machines::Flow{machines::Flow::Kind::mass, f.m};
-  in.efficiency = machines::Efficiency{EfficiencyBasis::isentropic, 0.86};
+  in.mass_flow = f.m;
+  in.efficiency_isentropic = 0.86;
   const auto r = machines::rate(in);
   CHECK(r.solved_for == std::vector<std::string>{"power"});
-  REQUIRE(r.checks.size() == 1);
-  CHECK(r.checks[0].key == "efficiency.isentropic");
-  CHECK(r.checks[0].given == 0.86);
-  CHECK(r.checks[0].computed == Approx(0.84).epsilon(1e-12));
+  REQUIRE(r.efficiency_check);
+  CHECK(r.efficiency_check->input == machines::Input::efficiency_isentropic);
+  CHECK(r.efficiency_check->given == 0.86);
+  CHECK(r.efficiency_check->computed == Approx(0.84).epsilon(1e-12));
+  // Two points apart: more than the threshold of a warning.
+  REQUIRE(r.warnings.size() == 1);
+  CHECK(r.warnings[0] ==
+        "the given efficiency.isentropic 0.8600 and the 0.8400 from the temperatures differ by 2.0 points: check "
+        "the temperatures and the given value");
 }
 
 TEST_CASE("impossible and incomplete sets are refused with the reason") {
@@ -245,14 +301,16 @@ TEST_CASE("impossible and incomplete sets are refused with the reason") {
   }
   SECTION("efficiency above 1 or at 0") {
     RatingInput in = compressor_point();
-    in.efficiency->value = 1.07;
-    CHECK(refusal(in) == "efficiency must be above 0 and at most 1, got 1.07");
-    in.efficiency->value = 0;
-    CHECK(refusal(in) == "efficiency must be above 0 and at most 1, got 0");
+    in.efficiency_isentropic = 1.07;
+    CHECK(refusal(in) == "efficiency.isentropic: must be above 0 and at most 1 (or 100 %), got 1.07");
+    in.efficiency_isentropic = 0;
+    CHECK(refusal(in) == "efficiency.isentropic: must be above 0 and at most 1 (or 100 %), got 0");
+    in.efficiency_isentropic = 1.0000001;  // not "got 1"
+    CHECK(refusal(in) == "efficiency.isentropic: must be above 0 and at most 1 (or 100 %), got 1.0000001");
   }
   SECTION("power below the isentropic minimum") {
     RatingInput in = compressor_point();
-    in.efficiency.reset();
+    in.efficiency_isentropic.reset();
     // Isentropic power for this flow: m cp (T2s - T1) = 3.5 * 1005 * 195.99... = 689.4 kW.
     in.power = 650e3;
     const std::string message = refusal(in);
@@ -261,7 +319,7 @@ TEST_CASE("impossible and incomplete sets are refused with the reason") {
   }
   SECTION("outlet temperature below the isentropic one") {
     RatingInput in = compressor_point();
-    in.efficiency.reset();
+    in.efficiency_isentropic.reset();
     in.outlet_temperature = 450.0;  // T2s = 489.1 K
     const std::string message = refusal(in);
     CHECK(message.rfind("efficiency would be 1.2", 0) == 0);
@@ -270,31 +328,32 @@ TEST_CASE("impossible and incomplete sets are refused with the reason") {
   }
   SECTION("outlet colder than the inlet") {
     RatingInput in = compressor_point();
-    in.efficiency.reset();
+    in.efficiency_isentropic.reset();
     in.outlet_temperature = 280.0;
-    CHECK(refusal(in).find("a compressor must raise the enthalpy, and the outlet state (280 K) lowers it") !=
+    CHECK(refusal(in).find("a compressor must raise the enthalpy, and the given outlet lowers it by 13.2") !=
           std::string::npos);
   }
   SECTION("three unknowns") {
     RatingInput in = compressor_point();
-    in.efficiency.reset();
+    in.efficiency_isentropic.reset();
     in.outlet_pressure.reset();
     CHECK(refusal(in) ==
           "too few knowns: outlet.pressure, outlet.temperature, power and efficiency are all unknown; give 2 more "
           "of them (five of the seven quantities fix a machine)");
   }
-  SECTION("a set that fixes nothing") {
+  SECTION("two specific unknowns without flow and power") {
     RatingInput in = compressor_point();
-    in.flow.reset();
-    in.outlet_temperature = 500.0;
+    in.mass_flow.reset();
+    in.efficiency_isentropic.reset();
     CHECK(refusal(in) ==
-          "the flow and the power are both unknown, and nothing else fixes the size of the machine: give "
-          "mass_flow (or volume_flow, standard_volume_flow) or power");
+          "too few knowns: outlet.temperature and efficiency are unknown, and neither the flow nor the power is "
+          "given; give 1 more of p1, T1, p2, T2 and the efficiency (four of the five fix the efficiencies, heads "
+          "and outlet state), or give the flow and the power as well");
   }
   SECTION("outlet pressure with efficiency") {
     RatingInput in = compressor_point();
     in.outlet_pressure.reset();
-    in.efficiency.reset();
+    in.efficiency_isentropic.reset();
     in.outlet_temperature = 500.0;
     in.power = 800e3;
     CHECK(refusal(in) ==

@@ -56,6 +56,7 @@ class IapwsIf97 final : public FluidModel {
   static double saturation_pressure(double T);
 
   std::string model_name() const override { return "iapws-if97"; }
+  FluidKind fluid_kind() const override { return FluidKind::water_steam; }
   std::string description() const override;
   Range temperature_range() const override { return {273.15, 2273.15}; }
   // 0 stands for "above 0": IF97's region 2 reaches down to the ideal-gas limit. Above

@@ -30,6 +30,8 @@
 
 namespace shaftwork::fluids {
 
+class IdealGasMixture;
+
 // One temperature interval of a species' NASA polynomial.
 struct NasaInterval {
   double t_low = 0;   // K
@@ -95,7 +97,8 @@ struct Component {
   double fraction;
 };
 
-// Ideal gas on NASA polynomials: one species or an ideal mixture.
+// Ideal gas on NASA polynomials: one species or an ideal mixture; a FluidModel over
+// IdealGasMixture (the ideal-gas part, which the cubic equations of state share).
 //
 // The temperature range is the intersection of the species' ranges; a temperature outside
 // it throws out_of_range naming the species or mixture and the range (nothing is
@@ -117,10 +120,14 @@ class NasaPolynomialGas final : public FluidModel {
   State from_ph(double p, double h) const override;
   State from_ps(double p, double s) const override;
   std::string model_name() const override { return "nasa-polynomial"; }
+  FluidKind fluid_kind() const override { return FluidKind::ideal_gas; }
   std::string description() const override;
   Range temperature_range() const override;
   Range pressure_range() const override;
   std::optional<double> ideal_gas_constant() const override;
+  // Peng-Robinson on the composition with the built-in critical constants
+  // (compressibility_estimate.hpp); empty when a species has none.
+  std::optional<double> estimated_compressibility(double p, double T) const override;
 
   // Mole fractions after renormalisation, by species name, in the order given.
   std::vector<std::pair<std::string, double>> mole_fractions() const;
@@ -129,7 +136,8 @@ class NasaPolynomialGas final : public FluidModel {
   bool renormalised() const;
   // The sum of the fractions as given, before renormalisation.
   double given_sum() const;
-
+  // The ideal-gas part this model is made of (ideal_gas_mixture.hpp).
+  const IdealGasMixture& ideal_gas() const;
 
  private:
   struct Impl;

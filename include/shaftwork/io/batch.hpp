@@ -13,6 +13,7 @@
 
 #include <cstddef>
 #include <string>
+#include <vector>
 
 #include <nlohmann/json.hpp>
 
@@ -31,7 +32,9 @@ struct BatchOptions {
   BatchFormat format = BatchFormat::csv;
   UnitSystem units = UnitSystem::si;  // of the csv result columns
   unsigned jobs = 1;                  // worker threads; 1 rates on the calling thread
-  std::size_t chunk_bytes = 256 * 1024;
+  std::size_t chunk_bytes = 256 * 1024;  // the largest chunk; slow rows get smaller ones
+  // The result columns of the csv, by dotted result key (--columns); empty: the defaults.
+  std::vector<std::string> columns;
 };
 
 // Told how far the batch has got, from the thread that called rate_batch, after each
@@ -47,13 +50,21 @@ class BatchProgress {
 struct BatchSummary {
   std::size_t rows = 0;    // data rows seen (not the header, not empty lines)
   std::size_t failed = 0;  // rows written as errors
+  unsigned threads = 1;    // threads that rated: fewer than BatchOptions::jobs when the
+                           // system would not start more (the batch still completes)
 };
 
-// The template of a batch: its one case, read, and what the rows need to know of how
-// it was written.
+// The template of a batch: its one case, read.
 struct BatchTemplate {
   CaseInput input;
-  bool barometer_given = false;  // the template has site.barometric_pressure
+};
+
+// Told once about each column that is carried through unchanged (a logger's timestamp),
+// before any row is rated.
+class BatchNotices {
+ public:
+  virtual ~BatchNotices() = default;
+  virtual void notice(const std::string& text) = 0;
 };
 
 // Reads the template from a parsed case file named `origin`. Throws bad_input
@@ -63,12 +74,14 @@ BatchTemplate read_batch_template(const nlohmann::json& document, const std::str
                                   FluidFactory& fluids);
 
 // Rates every row of `points` (named `points_name` in messages) against `template_case`
-// and writes the results to `out`. Throws bad_input naming the input for a problem
-// with the whole input, before anything is written when it is the header: a column
-// with an unknown key, a missing, unknown or mismatched unit, two columns that give
-// the same quantity, no header at all; or later a record that never ends, or a read
-// or write failure.
+// and writes the results to `out`. A column whose header names no case key is carried
+// through unchanged (`notices` hears of it). Throws bad_input naming the input for a
+// problem with the whole input, before anything is written when it is the header: a
+// case key with a missing, unknown or mismatched unit, two columns that give the same
+// quantity, a --columns key that is no result key, no header at all; or later a record
+// that never ends, or a read or write failure.
 BatchSummary rate_batch(ByteSource& points, const std::string& points_name, const BatchTemplate& template_case,
-                        ByteSink& out, const BatchOptions& options, BatchProgress* progress = nullptr);
+                        ByteSink& out, const BatchOptions& options, BatchProgress* progress = nullptr,
+                        BatchNotices* notices = nullptr);
 
 }  // namespace shaftwork::io

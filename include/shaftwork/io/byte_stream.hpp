@@ -1,10 +1,13 @@
 // shaftwork/io/byte_stream.hpp — where a streaming command reads its bytes and writes them.
 //
 // Small interfaces so that the batch rater reads files, pipes and test strings alike
-// and writes to standard output or to a file that appears whole or not at all.
+// and writes to standard output or to a file that appears whole or not at all
+// (io::OutputFile, atomic_file.hpp).
 #pragma once
 
 #include <cstddef>
+#include <ostream>
+#include <streambuf>
 #include <string>
 #include <string_view>
 #include <utility>
@@ -63,26 +66,35 @@ class FdSink final : public ByteSink {
   std::string name_;
 };
 
-// Writes a file whole or not at all: the bytes go to a temporary file beside `path`
-// as they come; commit() flushes it to disk and renames it over `path`. Destroyed
-// without commit() (an error, an exception), it removes the temporary file and
-// leaves `path` as it was. Throws bad_input naming `path` and the system's reason.
-class AtomicFileSink final : public ByteSink {
- public:
-  explicit AtomicFileSink(std::string path);
-  AtomicFileSink(const AtomicFileSink&) = delete;
-  AtomicFileSink& operator=(const AtomicFileSink&) = delete;
-  ~AtomicFileSink() override;
+// The sink that writes an output file whole or not at all is io::OutputFile
+// (atomic_file.hpp).
 
-  void write(std::string_view bytes) override;
-  void commit();
+// Standard output as a sink (not owned, never closed).
+ByteSink& standard_output();
+
+// A std::ostream that writes into a ByteSink through a 64 kB buffer, for writers that
+// speak streams. A failure of the sink comes out of the stream operation that met it as
+// the sink's own shaftwork::Error.
+class SinkStream final : public std::ostream {
+ public:
+  explicit SinkStream(ByteSink& sink);
+  SinkStream(const SinkStream&) = delete;
+  SinkStream& operator=(const SinkStream&) = delete;
+  ~SinkStream() override;
 
  private:
-  [[noreturn]] void fail(const char* step);
+  class Buffer final : public std::streambuf {
+   public:
+    explicit Buffer(ByteSink& sink);
+    int sync() override;
+    int_type overflow(int_type c) override;
 
-  std::string path_;
-  std::string temp_;
-  int fd_ = -1;
+   private:
+    void drain();
+    ByteSink& sink_;
+    std::string data_;
+  };
+  Buffer buffer_;
 };
 
 }  // namespace shaftwork::io

@@ -4,6 +4,7 @@
 // other cases are rated all the same.
 #pragma once
 
+#include <map>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -11,19 +12,27 @@
 #include <nlohmann/json.hpp>
 
 #include "shaftwork/io/fluid_factory.hpp"
+#include "shaftwork/io/json_document.hpp"  // parse_json_strict, for the callers that rate what they parse
 #include "shaftwork/io/result_writer.hpp"
 
 namespace shaftwork::io {
 
-// Parses JSON text strictly: a duplicate key in any object is an error, since the
-// file would otherwise mean two things. Throws bad_input naming origin, line and column.
-nlohmann::json parse_json_strict(std::string_view text, const std::string& origin);
-
-// Rates one case object; never throws for a problem of the case itself.
-CaseOutcome rate_case(const nlohmann::json& case_object, size_t index, FluidFactory& fluids);
+// Rates one case object of the file `origin`; never throws for a problem of the case itself.
+CaseOutcome rate_case(const nlohmann::json& case_object, size_t index, FluidFactory& fluids,
+                      const std::string& origin = "");
 
 // Rates every case of a document. Throws bad_input when it is not a case file.
 std::vector<CaseOutcome> rate_document(const nlohmann::json& document, const std::string& origin,
                                        FluidFactory& fluids);
+
+// Ids seen so far in one run, with where: a second case of one id gets a warning. Shared by
+// rate and check, so that a record check writes is what rate writes.
+class CaseIdRegister {
+ public:
+  void check(CaseOutcome& outcome, size_t index);
+
+ private:
+  std::map<std::string, std::string> seen_;
+};
 
 }  // namespace shaftwork::io

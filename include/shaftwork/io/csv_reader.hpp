@@ -13,6 +13,7 @@
 // quoted field is named by its first line.
 #pragma once
 
+#include <algorithm>
 #include <cstddef>
 #include <string>
 #include <string_view>
@@ -43,6 +44,10 @@ class CsvChunker {
 
   // Bytes taken from the source so far (for progress).
   std::size_t bytes_read() const { return bytes_read_; }
+
+  // The size of the chunks to come (slow rows want small chunks, so that every worker
+  // has one and progress shows often).
+  void set_target_size(std::size_t bytes) { target_size_ = std::max<std::size_t>(bytes, 16); }
 
  private:
   // Reads one block into `text`; returns false at the end of input.
@@ -85,6 +90,15 @@ class CsvRecordParser {
   std::size_t line() const { return line_; }
 
  private:
+  // Steps over empty lines; false at the end of the chunk.
+  bool skip_empty_lines();
+  // A record without quotes, split in one pass; false (nothing taken) at a quote.
+  bool next_plain(CsvRecord& record);
+  // Takes a record with quotes by the quote-parity rule; returns the end of its text.
+  std::size_t take_quoted_extent(CsvRecord& record);
+  // Splits [i, stop) into fields, unquoting in place; sets record.error when malformed.
+  void split_quoted(CsvRecord& record, std::size_t i, std::size_t stop);
+
   char* data_;
   std::size_t size_;
   std::size_t pos_ = 0;

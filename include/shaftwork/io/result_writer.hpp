@@ -1,7 +1,8 @@
-// shaftwork/io/result_writer.hpp — rating results as JSON (the contract's keys, SI),
-// a table for a person, and CSV for spreadsheets.
+// shaftwork/io/result_writer.hpp — rated cases as JSON (the contract's keys, SI), a table
+// for a person, and CSV for spreadsheets. Every writer takes its keys from result_keys().
 #pragma once
 
+#include <memory>
 #include <optional>
 #include <ostream>
 #include <string>
@@ -10,61 +11,63 @@
 
 #include <nlohmann/json.hpp>
 
-#include "shaftwork/io/case_reader.hpp"
+#include "shaftwork/io/case_input.hpp"
+#include "shaftwork/io/display_units.hpp"
 #include "shaftwork/machines/rating.hpp"
-#include "shaftwork/units/quantity.hpp"
 
 namespace shaftwork::io {
 
 // One case's outcome: a rating, or the error that stopped it.
 struct CaseOutcome {
   std::string id;
+  std::string origin;              // the file it came from ("" when not from a file)
   std::optional<CaseInput> input;  // absent when the case could not be read
   std::optional<machines::Rating> rating;
-  std::string error;               // set when !rating
+  std::string error;  // set when !rating
   std::vector<std::string> warnings;
 
   bool ok() const { return rating.has_value(); }
 };
 
-enum class UnitSystem { si, us };
-
-// The contract's result object for one case (SI numbers; no NaN or infinity: a
-// non-finite value turns the case into an error naming the key).
+// The contract's result object for one case (SI numbers rounded to 15 significant digits,
+// so that "41.208 bar" reads back as 4120800, not 4120800.0000000005; no NaN or infinity:
+// a non-finite value turns the case into an error naming the key).
 nlohmann::ordered_json result_json(const CaseOutcome& outcome);
-// The same from its parts, for callers that hold no CaseOutcome (the batch rater):
-// a rated case (`fluid_name` empty: no "fluid" key) and a failed one.
-nlohmann::ordered_json result_json(const std::string& id, std::string_view fluid_name,
-                                   const machines::Rating& rating, const std::vector<std::string>& warnings);
-nlohmann::ordered_json error_json(const std::string& id, const std::string& error,
-                                  const std::vector<std::string>& warnings);
 
-// The unit a result of dimension `d` is shown in by table and CSV output ("" for a
-// fraction): kPa, degC, kg/s, m3/h, kW, kJ/kg ... in si; psia, degF, lb/h ... in us.
-const char* display_unit(units::Dimension d, UnitSystem system);
 
-// One flat result column of the CSV outputs: the dotted key, the dimension (its
-// unit goes in brackets after the key), and the SI value from a rating.
-struct ResultColumn {
-  enum class Applies { always, two_phase, pump };  // which fluids or machines have a value
-  const char* key;
-  units::Dimension dimension;
-  std::optional<double> (*value)(const machines::Rating&);
-  bool in_batch;    // a column of the batch CSV (docs/batch.md says why some are not)
-  Applies applies;
+struct TableOptions {
+  UnitSystem system = UnitSystem::si;
+  bool system_forced = false;  // --units was given: it wins over the units of each case
+  bool show_origin = false;    // several files: name each case's file
 };
-// Every column, in output order: write_csv writes them all.
-const std::vector<ResultColumn>& result_columns();
+// One case's block of the table: the given values as written, solved ones marked, then
+// the results in the units of the case; redundant values beside their computed twins;
+// warnings.
+void write_case_table(std::ostream& out, const CaseOutcome& outcome, const TableOptions& options);
 
-// {"results": [...]} with two-space indentation.
-void write_json(std::ostream& out, const std::vector<CaseOutcome>& outcomes);
-// One block per case: values with units, given ones in the units they were given,
-// solved ones marked, warnings under the case.
-void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, UnitSystem system);
-// A header row of dotted keys with units in brackets, then one row per case.
-void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, UnitSystem system);
+// The CSV of cases: a header row of dotted keys with units in brackets, and one row per
+// case (each with its CRLF line end).
+std::string csv_header(UnitSystem system);
+std::string csv_row(const CaseOutcome& outcome, UnitSystem system);
+
+// Results written one case at a time, so that a file of many cases needs memory for one
+// of them: the table, JSON ({"results": [...]} with two-space indentation), JSON lines
+// or CSV.
+class ResultStream {
+ public:
+  virtual ~ResultStream() = default;
+  virtual void add(const CaseOutcome& outcome) = 0;
+  // Closes the document (JSON's brackets); nothing may be added after.
+  virtual void finish() {}
+};
+enum class ResultFormat { table, json, jsonl, csv };
+std::unique_ptr<ResultStream> make_result_stream(ResultFormat format, std::ostream& out, const TableOptions& options);
+
+// The whole document of `outcomes` in one format (tests, small outputs).
+void write_results(std::ostream& out, ResultFormat format, const std::vector<CaseOutcome>& outcomes,
+                   const TableOptions& options = {});
 
 // Quotes a CSV field when it holds a comma, quote or line break (RFC 4180).
-std::string csv_field(const std::string& text);
+std::string csv_field(std::string_view text);
 
 }  // namespace shaftwork::io

@@ -1,0 +1,262 @@
+#include "batch_rows.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include <fmt/format.h>
+
+#include "cell_number.hpp"
+#include "shaftwork/error.hpp"
+#include "shaftwork/io/case_reader.hpp"
+#include "shaftwork/io/number_format.hpp"
+#include "shaftwork/io/result_writer.hpp"
+#include "shaftwork/text.hpp"
+
+namespace shaftwork::io {
+namespace {
+
+using machines::Input;
+using units::Dimension;
+
+constexpr int kSignificantDigits = 10;  // of the csv result columns, as write_csv's
+
+// True when a column gives `input` or another form of the same quantity: the template's
+// value then gives way to the row's.
+bool overridden(const Plan& plan, Input input) {
+  const auto gives = machines::spec(input).gives;
+  return std::any_of(plan.inputs.begin(), plan.inputs.end(), [&](const InputColumn& c) {
+    return c.input == input || (gives && machines::spec(c.input).gives == gives);
+  });
+}
+
+// The template as the rows see it: the values the columns replace dropped, the columns'
+// units added for messages (no value), gauge units dropped when rows bring a barometer.
+CaseInput row_shape(const Plan& plan, const CaseInput& templ) {
+  CaseInput shape = templ;
+  std::erase_if(shape.given, [&](const GivenValue& g) { return overridden(plan, g.input); });
+  for (const InputColumn& c : plan.inputs) shape.given.push_back(GivenValue{c.input, 0, c.gauge, "", c.unit});
+  if (plan.has_barometer_column) {
+    for (GivenValue& g : shape.given) {
+      if (g.on_barometer) g.unit.clear();  // messages show absolute kPa
+    }
+  }
+  return shape;
+}
+
+// The units layer's own checks on an SI value of each dimension.
+bool within_domain(Dimension d, double si) {
+  if (!std::isfinite(si)) return false;
+  switch (d) {
+    case Dimension::pressure:
+    case Dimension::temperature: return si > 0;
+    case Dimension::mass_flow:
+    case Dimension::volume_flow:
+    case Dimension::standard_volume_flow:
+    case Dimension::power:
+    case Dimension::length: return si >= 0;
+    default: return true;
+  }
+}
+
+}  // namespace
+
+BatchShared::BatchShared(const Plan& p, const BatchTemplate& t, const BatchOptions& o, const std::string& name)
+    : plan(p), templ(t), options(o), points_name(name) {
+  base = to_rating_input(row_shape(plan, templ.input));
+  for (const InputColumn& c : plan.inputs) {
+    if (const auto field = machines::spec(c.input).field) base.*field = std::nullopt;
+    if (c.input != Input::standard_volume_flow) continue;
+    if (const auto reference = units::standard_reference(*units::find_unit(c.unit), templ.input.context())) {
+      standard_reference = units::describe(*reference);
+    }
+  }
+  bool gauge = std::any_of(plan.inputs.begin(), plan.inputs.end(), [](const InputColumn& c) { return c.gauge; });
+  for (const GivenValue& g : templ.input.given) {
+    if (g.on_barometer && !overridden(plan, g.input)) template_gauge_inputs.push_back(g.input);
+    gauge = gauge || g.on_barometer;
+  }
+  for (const std::string& w : templ.input.warnings) {
+    if (w != kDefaultBarometerWarning) warnings.push_back(w);
+  }
+  if (gauge && !templ.input.find(Input::barometric_pressure) && !plan.has_barometer_column) {
+    warnings.emplace_back(kDefaultBarometerWarning);
+  }
+  for (const std::string& w : warnings) warnings_joined += (warnings_joined.empty() ? "" : "; ") + w;
+}
+
+RowRater::RowRater(const BatchShared& shared) : shared_(shared), plan_(shared.plan), input_(shared.base) {}
+
+void RowRater::rate_chunk(CsvChunk& chunk, OutputBuffer& out, std::size_t& rows, std::size_t& failed) {
+  CsvRecordParser parser(chunk.text, chunk.first_line);
+  while (parser.next(record_)) {
+    ++rows;
+    if (!rate_record(out)) ++failed;
+  }
+}
+
+bool RowRater::rate_record(OutputBuffer& out) {
+  const std::size_t line = record_.line;
+  error_.clear();
+  id_ = {};
+  cell_error_ = false;
+  if (!record_.error.empty()) {
+    error_ = fmt::format("line {}: {}", line, record_.error);
+    cell_error_ = true;
+  } else if (record_.fields.size() != plan_.header.size()) {
+    error_ = fmt::format("line {}: {} {} where the header has {}", line, record_.fields.size(),
+                         record_.fields.size() == 1 ? "field" : "fields", plan_.header.size());
+    cell_error_ = true;
+  } else {
+    cell_error_ = !apply_cells(line);
+  }
+  bool rated = false;
+  if (error_.empty()) {
+    try {
+      rating_ = machines::rate(input_);
+      rated = true;
+    } catch (const Error& e) {
+      error_ = fmt::format("line {}: {}", line, e.what());
+    }
+  }
+  if (shared_.options.format == BatchFormat::jsonl) {
+    write_jsonl(out, rated, line);
+  } else {
+    write_csv_row(out, rated);
+  }
+  return rated;
+}
+
+// Sets every column's value of the row; false with error_ set at the first bad cell.
+bool RowRater::apply_cells(std::size_t line) {
+  if (plan_.id_index) id_ = record_.fields[*plan_.id_index];
+  barometer_ = shared_.templ.input.barometer();
+  for (const InputColumn& c : plan_.inputs) {
+    if (!apply(c, record_.fields[c.index], line)) return false;
+  }
+  if (plan_.has_barometer_column) {
+    // The template's gauge readings, read against this row's barometer.
+    const double shift = barometer_ - shared_.templ.input.barometer();
+    for (Input input : shared_.template_gauge_inputs) {
+      input_.*machines::spec(input).field = shared_.templ.input.find(input)->si + shift;
+    }
+  }
+  return true;
+}
+
+bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t line) {
+  const std::string_view cell = trim(raw);
+  double x = 0;
+  if (const std::string_view problem = parse_cell_number(cell, x); !problem.empty()) {
+    if (problem == "the cell is empty") {
+      error_ = fmt::format("line {}, column \"{}\": the cell is empty", line, c.header);
+    } else if (problem == "out of range") {
+      error_ = fmt::format("line {}, column \"{}\": the number \"{}\" is out of range", line, c.header, cell);
+    } else if (problem == "not finite") {
+      error_ = fmt::format("line {}, column \"{}\": \"{}\" is not a finite number", line, c.header, cell);
+    } else {
+      error_ = fmt::format("line {}, column \"{}\": \"{}\" is not a number", line, c.header, cell);
+    }
+    return false;
+  }
+  double si = c.scale * x + c.offset + (c.gauge ? barometer_ : 0.0);
+  if (!c.unit.empty() && (!within_domain(c.dimension, si) || (c.vacuum && x < 0))) {
+    error_ = fmt::format("line {}, column \"{}\": {}", line, c.header, domain_problem(c, cell));
+    return false;
+  }
+  si = si * c.factor + 0.0;  // as units::parse: no -0.0
+  if (const std::string problem = given_value_problem(c.input, si, c.unit); !problem.empty()) {
+    error_ = fmt::format("line {}, column \"{}\": {}", line, c.header, problem);
+    return false;
+  }
+  if (c.input == Input::barometric_pressure) {
+    barometer_ = si;
+  } else {
+    input_.*machines::spec(c.input).field = si;
+  }
+  return true;
+}
+
+// Why a converted cell is out of its dimension's domain, in the units layer's words.
+std::string RowRater::domain_problem(const InputColumn& c, std::string_view cell) const {
+  try {
+    units::ParseContext context = shared_.templ.input.context();
+    context.barometric_pressure = barometer_;
+    units::ParseNotes notes;
+    units::parse(fmt::format("{} {}", cell, c.unit), c.dimension, context, notes);
+  } catch (const Error& e) {
+    return e.what();
+  }
+  return fmt::format("\"{} {}\" is out of range", cell, c.unit);
+}
+
+void RowRater::write_csv_row(OutputBuffer& out, bool rated) {
+  const std::size_t n = plan_.header.size();
+  if (!record_.has_quotes && record_.fields.size() == n) {
+    out.append(record_.text);  // the fields as written, commas and all
+  } else {
+    for (std::size_t i = 0; i < n; ++i) {
+      if (i) out.push_back(',');
+      if (i < record_.fields.size()) out.append_csv_field(record_.fields[i]);
+    }
+  }
+  if (n) out.push_back(',');
+  out.append(rated ? "ok," : "error,");
+  out.append_csv_field(error_);
+  if (plan_.solved_for_column) {
+    out.push_back(',');
+    if (rated && !(rating_.solved_for == solved_for_ && !solved_for_text_.empty())) {
+      solved_for_ = rating_.solved_for;  // the rows of a log mostly solve for the same quantities
+      solved_for_text_ = solved_for_.joined(" ");
+    }
+    if (rated) out.append(solved_for_text_);
+  }
+  char* p = out.room(plan_.outputs.size() * (kMaxNumberChars + 1));
+  for (const OutputColumn& o : plan_.outputs) {
+    *p++ = ',';
+    if (!rated) continue;
+    const std::optional<double> v = o.key->value(rating_);
+    if (v && std::isfinite(*v)) p = format_significant(p, (*v - o.offset) / o.scale, kSignificantDigits);
+  }
+  out.commit(p);
+  out.push_back(',');
+  append_warnings(out, rated);
+  out.append("\r\n");
+}
+
+void RowRater::append_warnings(OutputBuffer& out, bool rated) {
+  if (cell_error_) return;
+  if (!rated || rating_.warnings.empty()) {
+    out.append_csv_field(shared_.warnings_joined);
+    return;
+  }
+  std::string joined = shared_.warnings_joined;
+  for (const auto& w : rating_.warnings) joined += (joined.empty() ? "" : "; ") + w;
+  out.append_csv_field(joined);
+}
+
+void RowRater::write_jsonl(OutputBuffer& out, bool rated, std::size_t line) {
+  CaseOutcome o;
+  o.id = id_.empty() ? fmt::format("line {}", line) : std::string(id_);
+  o.error = error_;
+  if (!cell_error_) o.warnings = shared_.warnings;
+  if (rated) {
+    CaseInput input = shared_.templ.input;
+    std::erase_if(input.given, [&](const GivenValue& g) { return overridden(plan_, g.input); });
+    for (const InputColumn& c : plan_.inputs) {
+      const std::string cell(trim(record_.fields[c.index]));
+      input.given.push_back({c.input, 0, c.gauge, c.unit.empty() ? cell : cell + " " + c.unit, c.unit});
+    }
+    if (!shared_.standard_reference.empty()) input.standard_reference = shared_.standard_reference;
+    std::stable_sort(input.given.begin(), input.given.end(),
+                     [](const GivenValue& a, const GivenValue& b) { return a.input < b.input; });
+    o.input = std::move(input);
+    o.warnings.insert(o.warnings.end(), rating_.warnings.begin(), rating_.warnings.end());
+    o.rating = rating_;
+  }
+  // A CSV cell may hold bytes that are not UTF-8 (an id from a logger): written as U+FFFD,
+  // where dump() would otherwise throw out of the batch.
+  out.append(result_json(o).dump(-1, ' ', false, nlohmann::ordered_json::error_handler_t::replace));
+  out.push_back('\n');
+}
+
+}  // namespace shaftwork::io

@@ -1,0 +1,65 @@
+// Rating the rows of a batch: each row's cells set the columns' case values on a copy of
+// the template's input, one machines::rate, and the row's output text. Internal to the io
+// layer.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "batch_plan.hpp"
+#include "output_buffer.hpp"
+#include "shaftwork/io/csv_reader.hpp"
+
+namespace shaftwork::io {
+
+// What every row shares, read-only.
+struct BatchShared {
+  BatchShared(const Plan& plan, const BatchTemplate& templ, const BatchOptions& options,
+              const std::string& points_name);
+
+  const Plan& plan;
+  const BatchTemplate& templ;
+  const BatchOptions& options;
+  std::string points_name;
+  machines::RatingInput base;  // the template with the columns' quantities cleared
+  // The template's values read against its barometer, re-read against a row's barometer.
+  std::vector<machines::Input> template_gauge_inputs;
+  std::string standard_reference;     // of a standard volume flow column, in words
+  std::vector<std::string> warnings;  // of every rated row (the template's, the barometer's)
+  std::string warnings_joined;        // the same joined by "; ", for csv
+};
+
+// Rates the rows of chunks; one per worker thread, since it keeps a RatingInput that each
+// row overwrites in the columns' fields.
+class RowRater {
+ public:
+  explicit RowRater(const BatchShared& shared);
+
+  // Rates every record of `chunk`, appending the output to `out`.
+  void rate_chunk(CsvChunk& chunk, OutputBuffer& out, std::size_t& rows, std::size_t& failed);
+
+ private:
+  bool rate_record(OutputBuffer& out);
+  bool apply_cells(std::size_t line);
+  bool apply(const InputColumn& c, std::string_view raw, std::size_t line);
+  std::string domain_problem(const InputColumn& c, std::string_view cell) const;
+  void write_csv_row(OutputBuffer& out, bool rated);
+  void write_jsonl(OutputBuffer& out, bool rated, std::size_t line);
+  void append_warnings(OutputBuffer& out, bool rated);
+
+  const BatchShared& shared_;
+  const Plan& plan_;
+  machines::RatingInput input_;
+  CsvRecord record_;
+  machines::Rating rating_;
+  std::string_view id_;  // the id cell of the row being rated
+  machines::SolvedFor solved_for_;  // of the previous rated row, and as text
+  std::string solved_for_text_;
+  std::string error_;
+  bool cell_error_ = false;  // the row failed before rating: no warnings, as for a case that cannot be read
+  double barometer_ = units::kStandardAtmosphere;
+};
+
+}  // namespace shaftwork::io

@@ -1,0 +1,73 @@
+// Results as the contract's JSON: one object per case, its numbers placed by the dotted
+// keys of result_keys().
+#include <cmath>
+
+#include <fmt/format.h>
+
+#include "shaftwork/io/number_format.hpp"
+#include "shaftwork/io/result_keys.hpp"
+#include "shaftwork/io/result_writer.hpp"
+
+namespace shaftwork::io {
+namespace {
+
+using nlohmann::ordered_json;
+
+// Sets j[a][b]... along the dotted key.
+void place(ordered_json& j, std::string_view key, double value) {
+  ordered_json* at = &j;
+  for (auto dot = key.find('.'); dot != std::string_view::npos; dot = key.find('.')) {
+    at = &(*at)[std::string(key.substr(0, dot))];
+    key.remove_prefix(dot + 1);
+  }
+  (*at)[std::string(key)] = rounded_for_output(value);
+}
+
+ordered_json error_json(const CaseOutcome& o) {
+  ordered_json j;
+  j["id"] = o.id;
+  if (!o.origin.empty()) j["file"] = o.origin;
+  j["status"] = "error";
+  j["error"] = o.error;
+  if (!o.warnings.empty()) j["warnings"] = o.warnings;
+  return j;
+}
+
+ordered_json given_json(const CaseInput& in) {
+  ordered_json given = ordered_json::object();
+  for (const GivenValue& g : in.given) given[std::string(machines::key_of(g.input))] = g.written;
+  return given;
+}
+
+}  // namespace
+
+ordered_json result_json(const CaseOutcome& o) {
+  if (!o.ok()) return error_json(o);
+  const machines::Rating& r = *o.rating;
+  ordered_json j;
+  j["id"] = o.id;
+  if (!o.origin.empty()) j["file"] = o.origin;
+  j["status"] = "ok";
+  j["machine"] = o.input ? o.input->machine_written : machines::machine_name(r.machine);
+  if (o.input) j["fluid"] = o.input->fluid_label;
+  j["model"] = r.model;
+  j["solved_for"] = r.solved_for.keys();
+  if (o.input) j["given"] = given_json(*o.input);
+  if (o.input && !o.input->standard_reference.empty()) j["standard_reference"] = o.input->standard_reference;
+  for (const ResultKey& k : result_keys()) {
+    const std::optional<double> v = k.value(r);
+    if (!v) continue;
+    if (!std::isfinite(*v)) {
+      CaseOutcome failed{o.id, o.origin, std::nullopt, std::nullopt,
+                         fmt::format("the result {} is not a finite number; the case cannot be rated", k.key),
+                         o.warnings};
+      return error_json(failed);
+    }
+    place(j, k.key, *v);
+  }
+  if (r.efficiency_check) j["efficiency_check"]["key"] = machines::key_of(r.efficiency_check->input);
+  j["warnings"] = o.warnings;
+  return j;
+}
+
+}  // namespace shaftwork::io

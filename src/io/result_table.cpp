@@ -1,0 +1,157 @@
+// Results as a table for a person: the seven quantities as given (in the user's words)
+// or solved, then what the rating derived, in the units of the case.
+#include <algorithm>
+#include <cmath>
+
+#include <fmt/format.h>
+
+#include "shaftwork/io/result_keys.hpp"
+#include "shaftwork/io/result_writer.hpp"
+#include "shaftwork/text.hpp"
+
+namespace shaftwork::io {
+namespace {
+
+using machines::Input;
+using machines::Quantity;
+using machines::Rating;
+
+constexpr int kLabelWidth = 31;
+constexpr int kValueWidth = 20;
+
+class CaseTable {
+ public:
+  CaseTable(std::ostream& out, const CaseOutcome& o, const TableOptions& options)
+      : out_(out), o_(o), r_(*o.rating), units_(options.system, options.system_forced, in(), r_) {}
+
+  void write(bool show_origin) {
+    write_header(show_origin);
+    for (Quantity q : machines::kAllQuantities) write_quantity(q);
+    write_given_qualifiers();
+    write_results();
+    write_checks();
+    for (const auto& w : o_.warnings) out_ << "  warning: " << escape_control(w) << '\n';
+  }
+
+ private:
+  const CaseInput* in() const { return o_.input ? &*o_.input : nullptr; }
+
+  void row(std::string_view label, const std::string& value, std::string_view note) {
+    std::string line = fmt::format("  {:<{}}{:<{}}{}", label, kLabelWidth, value, kValueWidth, note);
+    line.erase(line.find_last_not_of(' ') + 1);
+    out_ << escape_control(line) << '\n';
+  }
+
+  void result_row(const ResultKey& k, std::string_view note) {
+    const std::optional<double> v = k.value(r_);
+    if (!v) return;
+    printed_.push_back(&k);
+    row(k.label, units_.text(*v, k.dimension, k.precision), note);
+  }
+
+  void write_header(bool show_origin) {
+    out_ << escape_control(o_.id) << '\n';
+    const std::string machine = in() ? in()->machine_written : machines::machine_name(r_.machine);
+    const std::string fluid = in() ? in()->fluid_label : r_.model;
+    out_ << escape_control(fmt::format("  {} on {} ({})", machine, fluid, r_.model)) << '\n';
+    if (show_origin && !o_.origin.empty()) out_ << escape_control(fmt::format("  from {}", o_.origin)) << '\n';
+  }
+
+  // The given forms of q as written, and its result rows: solved, or worked out from a
+  // form given in other words ("mass flow ... from standard volume flow").
+  void write_quantity(Quantity q) {
+    const GivenValue* given_form = nullptr;
+    for (const GivenValue& g : given()) {
+      if (machines::spec(g.input).gives != q) continue;
+      const bool standard = g.input == Input::standard_volume_flow && !in()->standard_reference.empty();
+      row(machines::spec(g.input).label, g.written,
+          standard ? fmt::format("given, at {}", in()->standard_reference) : std::string("given"));
+      given_form = &g;
+      // A redundant efficiency's result is the one from the states: shown beside it.
+      if (!(q == Quantity::efficiency && r_.efficiency_check)) mark(machines::key_of(g.input));
+    }
+    for (const ResultKey& k : result_keys()) {
+      if (k.reports != q || done(&k)) continue;
+      if (r_.solved_for.contains(q)) {
+        result_row(k, "solved");
+      } else if (given_form && q == Quantity::efficiency) {
+        result_row(k, r_.efficiency_check ? "from the states" : "");
+      } else if (given_form) {
+        result_row(k, fmt::format("from {}", machines::spec(given_form->input).label));
+      }
+    }
+    if (q == Quantity::inlet_temperature) write_quality_row(machines::key_of(Input::inlet_quality));
+    if (q == Quantity::outlet_temperature) write_quality_row(machines::key_of(Input::outlet_quality));
+  }
+
+  const std::vector<GivenValue>& given() const {
+    static const std::vector<GivenValue> none;
+    return in() ? in()->given : none;
+  }
+
+  void mark(std::string_view key) {
+    if (const ResultKey* k = find_result_key(key)) printed_.push_back(k);
+  }
+
+  void write_quality_row(std::string_view key) {
+    const ResultKey* k = find_result_key(key);
+    if (k && !done(k)) result_row(*k, "");
+  }
+
+  void write_given_qualifiers() {
+    for (const GivenValue& g : given()) {
+      if (machines::spec(g.input).gives) continue;
+      row(machines::spec(g.input).label, g.written, "given");
+      mark(machines::key_of(g.input));
+    }
+  }
+
+  void write_results() {
+    out_ << "  results\n";
+    for (const ResultKey& k : result_keys()) {
+      if (k.section == Section::hidden || done(&k)) continue;
+      result_row(k, "");
+    }
+  }
+
+  void write_checks() {
+    if (!r_.power_balance && !r_.efficiency_check) return;
+    const auto check = [&](std::string_view label, const std::string& given, const std::string& computed,
+                           const std::string& difference) {
+      out_ << fmt::format("  {:<{}}{:<{}}{:<21}{}\n", label, kLabelWidth, given, kValueWidth, computed, difference);
+    };
+    check("redundant values", "given", "from the fluid side", "difference");
+    if (const auto& pb = r_.power_balance) {
+      const Precision p{Precision::Kind::significant, 5};
+      check("shaft power", units_.text(pb->given_power, units::Dimension::power, p),
+            units_.text(pb->shaft_power, units::Dimension::power, p), fmt::format("{:+.2f} %", pb->difference_percent));
+    }
+    if (const auto& ec = r_.efficiency_check) {
+      check(machines::spec(ec->input).label, fmt::format("{:.4f}", ec->given), fmt::format("{:.4f}", ec->computed),
+            fmt::format("{:+.2f} points", 100 * (ec->computed - ec->given)));
+    }
+  }
+
+  bool done(const ResultKey* k) const { return std::find(printed_.begin(), printed_.end(), k) != printed_.end(); }
+
+  std::ostream& out_;
+  const CaseOutcome& o_;
+  const Rating& r_;
+  DisplayUnits units_;
+  std::vector<const ResultKey*> printed_;
+};
+
+}  // namespace
+
+void write_case_table(std::ostream& out, const CaseOutcome& o, const TableOptions& options) {
+  if (o.ok()) {
+    CaseTable(out, o, options).write(options.show_origin);
+    return;
+  }
+  out << escape_control(o.id) << '\n';
+  if (options.show_origin && !o.origin.empty()) out << escape_control(fmt::format("  from {}", o.origin)) << '\n';
+  out << "  could not be rated: " << escape_control(o.error) << '\n';
+  for (const auto& w : o.warnings) out << "  warning: " << escape_control(w) << '\n';
+}
+
+}  // namespace shaftwork::io
