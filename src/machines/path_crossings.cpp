@@ -17,6 +17,7 @@ namespace {
 
 // Crossings are located to this fraction of |ln(p2/p1)|.
 constexpr double kLocateTolerance = 1e-13;
+constexpr double kSliver = 1e-4;  // of |ln(p2/p1)|: see split_at_region_change
 // No segment is shorter than this fraction of |ln(p2/p1)|.
 constexpr double kShortest = 1e-12;
 constexpr std::size_t kMaxSegments = 64;
@@ -89,6 +90,15 @@ bool PathSolver::split_at_region_change() {
     }
     const bool further = seg.crossing_start && k > 0 && c.before == segments_[k - 1].region_near_end();
     const double x = locate(c, PathView{seg, seg, length_ > 0}, before.x, after.x, kLocateTolerance);
+    // Next to a crossing already made, within a sliver: IF97's regions agree on their
+    // boundaries only within its consistency limits, and a node there may see either side.
+    // A boundary off by the sliver costs less than the tolerance (p v jumps by about 1e-5 of
+    // itself there); cutting again would not end.
+    const double sliver = kSliver * std::fabs(length_);
+    if (!c.saturation && ((seg.crossing_start && std::fabs(x - seg.x0) <= sliver) ||
+                          (seg.crossing_end && std::fabs(x - seg.x1) <= sliver))) {
+      continue;
+    }
     if (further) {
       segments_[k - 1].crossing = c;
       move_boundary(k - 1, x);  // the crossing at the start lies further on
@@ -120,11 +130,13 @@ double PathSolver::side(const Crossing& c, const PathView& path, double x) {
       return c.dry_before ? 1.0 : -1.0;  // no saturation line at p (critical or above): dry
     }
   }
-  // Elsewhere the model's own (p, h) rule, as the path's enthalpy is what is continuous:
-  // where two regions' equations overlap (IF97's agree on their boundaries only within its
-  // consistency limits) a rule in (p, s) or (p, T) would put the boundary elsewhere.
-  const double h = form == Form::enthalpy ? y : fluid_.from_ps(p, y).enthalpy;
-  return fluid_.from_ph(p, h).region == c.before ? 1.0 : -1.0;
+  // Elsewhere the model's region of the state at (p, y), by the rule the nodes' states are
+  // taken with ((p, s) in the entropy form). Where two regions' equations overlap (IF97's
+  // agree on their boundaries only within its consistency limits) the (p, s) and (p, h) rules
+  // put the boundary a sliver apart; a crossing found by the other rule would leave a node of
+  // the wrong side in that sliver and be split again and again.
+  const State st = form == Form::enthalpy ? fluid_.from_ph(p, y) : fluid_.from_ps(p, y);
+  return st.region == c.before ? 1.0 : -1.0;
 }
 
 // The crossing between xa (before it) and xb (beyond), to `fraction` of |ln(p2/p1)|: the Illinois method (Dowell and
@@ -203,7 +215,7 @@ bool PathSolver::relocate_crossings() {
 // weight of a segment's end node), and held to a tenth of the segment.
 bool PathSolver::follow_saturation(std::size_t k) {
   Segment& a = segments_[k];
-  const Segment& b = segments_[k + 1];
+  Segment& b = segments_[k + 1];
   Crossing& c = a.crossing;
   const Node& end = a.nodes[kLast];
   const double x_b = a.x1;
@@ -218,8 +230,15 @@ bool PathSolver::follow_saturation(std::size_t k) {
   if (!std::isfinite(dx) || std::fabs(factor_) * kink * std::fabs(dx) * (weight + std::fabs(dx)) <= 0.1 * tolerance_) {
     return false;
   }
-  const double limit = 0.1 * std::min(std::fabs(a.length()), std::fabs(b.length()));
-  const double x = x_b + std::clamp(dx, -limit, limit);
+  const double limit = 0.5 * std::min(std::fabs(a.length()), std::fabs(b.length()));
+  if (std::fabs(dx) > limit) {
+    // The crossing lies far from here (beyond a neighbouring segment, perhaps): steps held to
+    // a part of a shrinking segment would close in geometrically, never arriving. The mark
+    // goes; the next sweep cuts where the path's nodes change region.
+    a.crossing_end = b.crossing_start = false;
+    return true;
+  }
+  const double x = x_b + dx;
   if (!fix_saturation_line(c, a.form, x)) return false;
   move_boundary(k, x);
   return true;

@@ -101,6 +101,7 @@ class Disguised final : public FluidModel {
   State from_pt(double p, double T) const override { return model_->from_pt(p, T); }
   State from_ph(double p, double h) const override { return model_->from_ph(p, h); }
   State from_ps(double p, double s) const override { return model_->from_ps(p, s); }
+  fluids::FluidKind fluid_kind() const override { return fluids::FluidKind::real_gas; }  // the general path
   std::string model_name() const override { return model_->model_name(); }
   std::string description() const override { return model_->description(); }
   fluids::Range temperature_range() const override { return model_->temperature_range(); }
