@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <iostream>
 #include <iterator>
+#include <map>
 #include <memory>
 #include <optional>
 #include <sstream>
@@ -17,7 +18,9 @@
 #include "batch_command.hpp"
 #include "commands.hpp"
 #include "shaftwork/error.hpp"
+#include "shaftwork/io/uncertainty_input.hpp"
 #include "shaftwork/io/atomic_file.hpp"
+#include "shaftwork/io/case_reader.hpp"
 #include "shaftwork/io/case_runner.hpp"
 #include "shaftwork/io/result_writer.hpp"
 #include "shaftwork/io/text_file.hpp"
@@ -41,36 +44,70 @@ struct RateOptions {
 
 
 // Each case's warnings and, for a failed case, its error, on standard error (the results
-// keep them too). Returns whether a case failed.
-bool report_cases(const std::vector<io::CaseOutcome>& outcomes) {
-  bool case_failed = false;
-  for (const auto& o : outcomes) {
-    for (const auto& w : o.warnings) std::cerr << fmt::format("warning: case \"{}\": {}\n", o.id, w);
-    if (!o.ok()) {
-      case_failed = true;
-      std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
-    }
-  }
-  return case_failed;
+// keep them too).
+void report_case(const io::CaseOutcome& o) {
+  for (const auto& w : o.warnings) std::cerr << fmt::format("warning: case \"{}\": {}\n", o.id, w);
+  if (!o.ok()) std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
 }
 
-std::string format_results(const std::vector<io::CaseOutcome>& outcomes, const RateOptions& options) {
-  const io::UnitSystem system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
-  std::ostringstream text;
-  if (options.format == "json") {
-    io::write_json(text, outcomes);
-  } else if (options.format == "jsonl") {
-    for (const auto& o : outcomes) text << io::result_json(o).dump() << '\n';
-  } else if (options.format == "csv") {
-    io::write_csv(text, outcomes, system);
-  } else {
-    io::TableOptions table;
-    table.system = system;
-    table.system_forced = options.units_given;
-    table.show_origin = options.files.size() > 1;
-    io::write_table(text, outcomes, table);
+io::ResultFormat result_format(const std::string& name) {
+  if (name == "json") return io::ResultFormat::json;
+  if (name == "jsonl") return io::ResultFormat::jsonl;
+  if (name == "csv") return io::ResultFormat::csv;
+  return io::ResultFormat::table;
+}
+
+// A file's text; standard input is read once and kept, as the CSV's header may need to know
+// what it holds before the cases are rated.
+class InputTexts {
+ public:
+  std::string text(const std::string& path) {
+    if (path != "-") return io::read_text_file(path);
+    if (!stdin_) stdin_ = io::read_text_file(path);
+    return *stdin_;
   }
-  return text.str();
+
+ private:
+  std::optional<std::string> stdin_;
+};
+
+// Whether some case of the files states an uncertainty (the CSV's uncertainty columns); a
+// file that cannot be read or parsed is left to rate_files to report.
+bool files_state_uncertainty(const std::vector<std::string>& files, InputTexts& texts) {
+  for (const auto& path : files) {
+    try {
+      if (io::states_uncertainty(io::parse_json_strict(texts.text(path), path))) return true;
+    } catch (const Error&) {
+    }
+  }
+  return false;
+}
+
+// Rates the cases of each file as they come and writes each result at once: memory holds
+// one file's document and one result. Returns whether a case failed; sets file_unusable.
+bool rate_files(const RateOptions& options, io::FluidFactory& fluids, io::ResultStream& results, InputTexts& texts,
+                bool& file_unusable) {
+  bool case_failed = false;
+  io::CaseIdRegister ids;
+  for (const auto& path : options.files) {
+    const std::string origin = path == "-" ? "standard input" : path;
+    try {
+      const auto document = io::parse_json_strict(texts.text(path), origin);
+      const auto cases = io::case_objects(document, origin);
+      for (std::size_t i = 0; i < cases.size(); ++i) {
+        io::CaseOutcome o = io::rate_case(*cases[i], i, fluids, origin);
+        ids.check(o, i);
+        report_case(o);
+        case_failed = case_failed || !o.ok();
+        results.add(o);
+      }
+    } catch (const Error& e) {
+      std::cerr << "error: " << e.what() << '\n';
+      file_unusable = true;
+    }
+  }
+  results.finish();
+  return case_failed;
 }
 
 int run_rate(const RateOptions& options) {
@@ -86,35 +123,29 @@ int run_rate(const RateOptions& options) {
     std::cerr << "error: " << e.what() << '\n';
     return kExitUnusable;
   }
+  io::TableOptions table;
+  table.system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
+  table.system_forced = options.units_given;
+  table.show_origin = options.files.size() > 1;
+  InputTexts texts;
+  if (options.format == "csv") table.uncertainty_columns = files_state_uncertainty(options.files, texts);
   bool file_unusable = false;
-  std::vector<io::CaseOutcome> outcomes;
-  for (const auto& path : options.files) {
-    const std::string origin = path == "-" ? "standard input" : path;
-    try {
-      const auto document = io::parse_json_strict(io::read_text_file(path), origin);
-      auto rated = io::rate_document(document, origin, fluids);
-      for (auto& o : rated) outcomes.push_back(std::move(o));
-    } catch (const Error& e) {
-      std::cerr << "error: " << e.what() << '\n';
-      file_unusable = true;
-    }
-  }
-  const std::string text = format_results(outcomes, options);
-  const bool case_failed = report_cases(outcomes);
-  if (!file) {
-    std::cout << text << std::flush;
-  } else if (file_unusable) {
-    // Exit 2 leaves an existing output file as it was (the temporary file goes with `file`):
-    // the results of some inputs must not pass for the run's.
-    std::cerr << fmt::format("error: {}: not written, since an input could not be used\n", options.output);
-  } else {
-    try {
-      file->write(text);
+  io::SinkStream out(file ? static_cast<io::ByteSink&>(*file) : io::standard_output());
+  const auto results = io::make_result_stream(result_format(options.format), out, table);
+  bool case_failed = false;
+  try {
+    case_failed = rate_files(options, fluids, *results, texts, file_unusable);
+    out.flush();
+    if (file && file_unusable) {
+      // Exit 2 leaves an existing output file as it was (the temporary file goes with `file`):
+      // the results of some inputs must not pass for the run's.
+      std::cerr << fmt::format("error: {}: not written, since an input could not be used\n", options.output);
+    } else if (file) {
       file->commit();
-    } catch (const Error& e) {
-      std::cerr << "error: " << e.what() << '\n';
-      return kExitUnusable;
     }
+  } catch (const Error& e) {
+    std::cerr << "error: " << e.what() << '\n';
+    return kExitUnusable;
   }
   if (file_unusable) return kExitUnusable;
   return case_failed ? kExitCaseFailed : kExitOk;

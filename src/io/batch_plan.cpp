@@ -75,7 +75,7 @@ std::string unit_problem(std::string_view unit, Dimension d) {
 
 // The input column of a case key, or a refusal naming the column.
 InputColumn input_column(std::size_t i, const std::string& header, const InputSpec& spec, std::string_view unit,
-                         const std::function<void(const std::string&)>& fail) {
+                         const units::ParseContext& context, const std::function<void(const std::string&)>& fail) {
   InputColumn c;
   c.index = i;
   c.header = header;
@@ -96,9 +96,10 @@ InputColumn input_column(std::size_t i, const std::string& header, const InputSp
   const std::string problem = unit_problem(unit, c.dimension);
   if (!problem.empty()) fail(problem);
   const units::UnitInfo& u = *units::find_unit(unit);
-  c.scale = u.scale;
+  c.scale = units::effective_scale(u, context);  // a standard volume at the template's site conditions
   c.offset = u.offset;
   c.gauge = u.gauge;
+  c.vacuum = u.vacuum();
   c.factor = c.dimension == Dimension::length ? units::kStandardGravity : 1.0;
   if (spec.input == Input::barometric_pressure) {  // a gauge barometer is refused
     const std::string gauge = given_value_problem(spec.input, units::kStandardAtmosphere, unit);
@@ -123,33 +124,16 @@ std::string forms_of(const InputSpec& spec) {
 
 // The case key nearest to an unknown one, for a notice ("did you mean ...?").
 std::string_view nearest_key(std::string_view key) {
-  std::string_view best;
-  std::size_t best_distance = 3;  // suggest only keys at most two edits away
-  for (const InputSpec& s : machines::kInputs) {
-    // Levenshtein distance, one row at a time.
-    std::vector<std::size_t> row(s.key.size() + 1);
-    for (std::size_t j = 0; j < row.size(); ++j) row[j] = j;
-    for (std::size_t i = 1; i <= key.size(); ++i) {
-      std::size_t diagonal = row[0];
-      row[0] = i;
-      for (std::size_t j = 1; j <= s.key.size(); ++j) {
-        const std::size_t up = row[j];
-        row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + (key[i - 1] == s.key[j - 1] ? 0 : 1)});
-        diagonal = up;
-      }
-    }
-    if (row.back() < best_distance) {
-      best_distance = row.back();
-      best = s.key;
-    }
-  }
-  return best;
+  std::vector<std::string_view> keys;
+  for (const InputSpec& s : machines::kInputs) keys.push_back(s.key);
+  return nearest_of(key, keys);
 }
 
 constexpr std::string_view kUncertaintyPrefix = "uncertainty.";
 
 // An uncertainty column "uncertainty.<case key> [unit]" (or "[%]"), or a refusal naming it.
 UncertaintyColumn uncertainty_column(std::size_t i, const std::string& header, const HeaderCell& cell,
+                                     const units::ParseContext& context,
                                      const std::function<void(const std::string&)>& fail) {
   const std::string_view key = cell.key.substr(kUncertaintyPrefix.size());
   const InputSpec* spec = find_case_input(key);
@@ -165,13 +149,14 @@ UncertaintyColumn uncertainty_column(std::size_t i, const std::string& header, c
                      cell.key, example_unit(spec->dimension)));
   }
   if (!u.relative && !cell.unit.empty()) {
-    const InputColumn as_value = input_column(i, header, *spec, cell.unit, fail);  // the unit's checks
+    const InputColumn as_value = input_column(i, header, *spec, cell.unit, context, fail);  // the unit's checks
     u.scale = std::fabs(as_value.scale) * as_value.factor;
   }
   return u;
 }
 
-void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_name) {
+void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_name,
+                 const units::ParseContext& context) {
   const std::vector<std::string>& header = plan.header;
   std::vector<std::pair<const InputSpec*, std::size_t>> seen;  // the case value of each column
   for (std::size_t i = 0; i < header.size(); ++i) {
@@ -189,7 +174,7 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
       fail("machine and fluid come from the template (--case): they are the same for every row");
     }
     if (cell.key.substr(0, kUncertaintyPrefix.size()) == kUncertaintyPrefix) {
-      UncertaintyColumn u = uncertainty_column(i, header[i], cell, fail);
+      UncertaintyColumn u = uncertainty_column(i, header[i], cell, context, fail);
       for (const UncertaintyColumn& other : plan.uncertainty_columns) {
         if (other.input != u.input) continue;
         fail(fmt::format("column {} \"{}\" gives it already; keep one", other.index + 1, other.header));
@@ -210,6 +195,9 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
                                          near.empty() ? "" : fmt::format(" (did you mean {}?)", near)));
       continue;
     }
+    if (!spec->field && spec->input != Input::barometric_pressure) {
+      fail(fmt::format("{} comes from the template (--case): it is the same for every row", spec->key));
+    }
     if (cell.brackets_malformed) fail("write the unit in square brackets after the key, as in \"inlet.pressure [barg]\"");
     for (const auto& [other_spec, other] : seen) {
       if (other_spec == spec || (spec->gives && other_spec->gives == spec->gives)) {
@@ -218,7 +206,7 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
       }
     }
     seen.emplace_back(spec, i);
-    InputColumn c = input_column(i, header[i], *spec, cell.unit, fail);
+    InputColumn c = input_column(i, header[i], *spec, cell.unit, context, fail);
     if (c.input == Input::barometric_pressure) plan.has_barometer_column = true;
     plan.inputs.push_back(std::move(c));
   }
@@ -260,6 +248,7 @@ std::vector<const ResultKey*> default_outputs(const Plan& plan, const BatchTempl
   for (const ResultKey& k : result_keys()) {
     if (!k.in_batch || column_gives(plan, k.key)) continue;
     if ((k.applies == Applies::two_phase && !two_phase) || (k.applies == Applies::pump && !pump)) continue;
+    if (k.applies == Applies::real_gas && templ.input.fluid->fluid_kind() != fluids::FluidKind::real_gas) continue;
     if (k.key.rfind("power_balance.", 0) == 0 && !(flow && power)) continue;
     if (k.key.rfind("efficiency_check.", 0) == 0 && !efficiency) continue;
     out.push_back(&k);
@@ -337,7 +326,7 @@ Plan make_plan(std::vector<std::string> header, std::size_t header_line, const s
                const BatchTemplate& templ, const BatchOptions& options) {
   Plan plan;
   plan.header = std::move(header);
-  plan_inputs(plan, header_line, points_name);
+  plan_inputs(plan, header_line, points_name, templ.input.context());
   plan_uncertainty(plan, templ, header_line, points_name);
   plan_outputs(plan, templ, options);
   return plan;

@@ -24,6 +24,7 @@ struct InputColumn {
   std::string unit;  // as written in the brackets, "" for none
   double scale = 1, offset = 0, factor = 1;
   bool gauge = false;
+  bool vacuum = false;  // a reading below the barometer (inHgV): never negative
 };
 
 // A column that states the uncertainty of a case value, "uncertainty.outlet.temperature [K]":

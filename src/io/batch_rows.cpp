@@ -100,6 +100,10 @@ BatchShared::BatchShared(const Plan& p, const BatchTemplate& t, const BatchOptio
   base = to_rating_input(row_shape(plan, templ.input));
   for (const InputColumn& c : plan.inputs) {
     if (const auto field = machines::spec(c.input).field) base.*field = std::nullopt;
+    if (c.input != Input::standard_volume_flow) continue;
+    if (const auto reference = units::standard_reference(*units::find_unit(c.unit), templ.input.context())) {
+      standard_reference = units::describe(*reference);
+    }
   }
   bool gauge = std::any_of(plan.inputs.begin(), plan.inputs.end(), [](const InputColumn& c) { return c.gauge; });
   for (const GivenValue& g : templ.input.given) {
@@ -234,7 +238,7 @@ bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t lin
     return false;
   }
   double si = c.scale * x + c.offset + (c.gauge ? barometer_ : 0.0);
-  if (!c.unit.empty() && !within_domain(c.dimension, si)) {
+  if (!c.unit.empty() && (!within_domain(c.dimension, si) || (c.vacuum && x < 0))) {
     error_ = fmt::format("line {}, column \"{}\": {}", line, c.header, domain_problem(c, cell));
     return false;
   }
@@ -255,7 +259,7 @@ bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t lin
 // Why a converted cell is out of its dimension's domain, in the units layer's words.
 std::string RowRater::domain_problem(const InputColumn& c, std::string_view cell) const {
   try {
-    units::ParseContext context;
+    units::ParseContext context = shared_.templ.input.context();
     context.barometric_pressure = barometer_;
     units::ParseNotes notes;
     units::parse(fmt::format("{} {}", cell, c.unit), c.dimension, context, notes);
@@ -340,6 +344,7 @@ void RowRater::write_jsonl(OutputBuffer& out, bool rated, std::size_t line) {
       const std::string cell(trim(record_.fields[c.index]));
       input.given.push_back({c.input, 0, c.gauge, c.unit.empty() ? cell : cell + " " + c.unit, c.unit, {}});
     }
+    if (!shared_.standard_reference.empty()) input.standard_reference = shared_.standard_reference;
     std::stable_sort(input.given.begin(), input.given.end(),
                      [](const GivenValue& a, const GivenValue& b) { return a.input < b.input; });
     o.input = std::move(input);

@@ -39,6 +39,7 @@ struct BatchShared {
   machines::RatingInput base;  // the template with the columns' quantities cleared
   // The template's values read against its barometer, re-read against a row's barometer.
   std::vector<machines::Input> template_gauge_inputs;
+  std::string standard_reference;     // of a standard volume flow column, in words
   std::vector<std::string> warnings;  // of every rated row (the template's, the barometer's)
   std::string warnings_joined;        // the same joined by "; ", for csv
   std::vector<UncertainValue> uncertain;     // empty when the batch states no uncertainty

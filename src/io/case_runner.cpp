@@ -62,3 +62,14 @@ std::vector<CaseOutcome> rate_document(const json& document, const std::string& 
 }
 
 }  // namespace shaftwork::io
+
+namespace shaftwork::io {
+
+void CaseIdRegister::check(CaseOutcome& outcome, size_t index) {
+  const auto [at, added] = seen_.try_emplace(outcome.id, fmt::format("{}, case {}", outcome.origin, index + 1));
+  if (added) return;
+  outcome.warnings.push_back(fmt::format(
+      "the id \"{}\" was used before ({}): results of one id are hard to tell apart", outcome.id, at->second));
+}
+
+}  // namespace shaftwork::io

@@ -33,55 +33,47 @@ std::string column_header(std::string_view prefix, const ResultKey& k, UnitSyste
 }
 
 // The cells of the uncertainty columns: U of each result key in its column's unit.
-void write_uncertainty_cells(std::ostream& out, const CaseOutcome& o, UnitSystem system) {
+void append_uncertainty_cells(std::string& out, const CaseOutcome& o, UnitSystem system) {
   const auto& keys = result_keys();
   for (std::size_t k = 0; k < keys.size(); ++k) {
-    out << ',';
+    out += ',';
     if (!o.ok() || !o.uncertainty || k >= o.uncertainty->expanded.size()) continue;
     const std::optional<double> u = o.uncertainty->expanded[k];
-    if (!u) continue;
-    std::string text;
-    append_significant(text, difference_from_si(*u, column_unit(keys[k].dimension, system)), kDigits);
-    out << text;
+    if (u) append_significant(out, difference_from_si(*u, column_unit(keys[k].dimension, system)), kDigits);
   }
 }
 
 }  // namespace
 
-// With uncertainties in any case, a column "uncertainty.<key> [unit]" for every result key
-// follows the result columns (the results keep their places).
-void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, UnitSystem system) {
-  const bool uncertainty = std::any_of(outcomes.begin(), outcomes.end(),
-                                       [](const CaseOutcome& o) { return o.uncertainty.has_value(); });
-  out << "id,file,status,error,machine,fluid,model,solved_for";
-  for (const ResultKey& k : result_keys()) out << ',' << column_header("", k, system);
+std::string csv_header(UnitSystem system, bool uncertainty) {
+  std::string out = "id,file,status,error,machine,fluid,model,solved_for";
+  for (const ResultKey& k : result_keys()) out += ',' + column_header("", k, system);
   if (uncertainty) {
-    for (const ResultKey& k : result_keys()) out << ',' << column_header("uncertainty.", k, system);
+    for (const ResultKey& k : result_keys()) out += ',' + column_header("uncertainty.", k, system);
   }
-  out << ",warnings\r\n";
-  for (const auto& o : outcomes) {
-    out << csv_field(o.id) << ',' << csv_field(o.origin) << ',' << (o.ok() ? "ok" : "error") << ','
-        << csv_field(o.error) << ',';
-    if (o.ok()) {
-      const machines::Rating& r = *o.rating;
-      out << csv_field(o.input ? o.input->machine_written : machines::machine_name(r.machine)) << ','
-          << csv_field(o.input ? o.input->fluid_label : "") << ',' << r.model << ',' << r.solved_for.joined(" ");
-      for (const ResultKey& k : result_keys()) {
-        out << ',';
-        const std::optional<double> v = k.value(r);
-        if (!v || !std::isfinite(*v)) continue;
-        const std::string_view unit = column_unit(k.dimension, system);
-        std::string text;
-        append_significant(text, unit.empty() ? *v : units::from_si(*v, unit, k.dimension), kDigits);
-        out << text;
-      }
-    } else {
-      out << ",,,";
-      for (std::size_t i = 0; i < result_keys().size(); ++i) out << ',';
+  return out + ",warnings\r\n";
+}
+
+std::string csv_row(const CaseOutcome& o, UnitSystem system, bool uncertainty) {
+  std::string out = fmt::format("{},{},{},{},", csv_field(o.id), csv_field(o.origin), o.ok() ? "ok" : "error",
+                                csv_field(o.error));
+  if (o.ok()) {
+    const machines::Rating& r = *o.rating;
+    out += fmt::format("{},{},{},{}", csv_field(o.input ? o.input->machine_written : machines::machine_name(r.machine)),
+                       csv_field(o.input ? o.input->fluid_label : ""), r.model, r.solved_for.joined(" "));
+    for (const ResultKey& k : result_keys()) {
+      out += ',';
+      const std::optional<double> v = k.value(r);
+      if (!v || !std::isfinite(*v)) continue;
+      const std::string_view unit = column_unit(k.dimension, system);
+      append_significant(out, unit.empty() ? *v : units::from_si(*v, unit, k.dimension), kDigits);
     }
-    if (uncertainty) write_uncertainty_cells(out, o, system);
-    out << ',' << csv_field(fmt::format("{}", fmt::join(o.warnings, "; "))) << "\r\n";
+  } else {
+    out += ",,,";
+    out.append(result_keys().size(), ',');
   }
+  if (uncertainty) append_uncertainty_cells(out, o, system);
+  return out + ',' + csv_field(fmt::format("{}", fmt::join(o.warnings, "; "))) + "\r\n";
 }
 
 }  // namespace shaftwork::io

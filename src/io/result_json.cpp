@@ -1,10 +1,10 @@
 // Results as the contract's JSON: one object per case, its numbers placed by the dotted
 // keys of result_keys().
 #include <cmath>
-#include <cstdlib>
 
 #include <fmt/format.h>
 
+#include "shaftwork/io/number_format.hpp"
 #include "shaftwork/io/result_keys.hpp"
 #include "shaftwork/io/result_writer.hpp"
 
@@ -13,14 +13,6 @@ namespace {
 
 using nlohmann::ordered_json;
 
-// An SI value rounded to 15 significant digits: the digits a double holds for sure, so
-// that unit conversions leave no noise in the last place (4120800, not 4120800.0000000005).
-double rounded(double x, int digits = 15) {
-  if (x == 0 || !std::isfinite(x)) return x + 0.0;
-  const std::string text = fmt::format("{:.{}g}", x, digits);
-  return std::strtod(text.c_str(), nullptr);
-}
-
 // Sets j[a][b]... along the dotted key.
 void place(ordered_json& j, std::string_view key, double value) {
   ordered_json* at = &j;
@@ -28,7 +20,7 @@ void place(ordered_json& j, std::string_view key, double value) {
     at = &(*at)[std::string(key.substr(0, dot))];
     key.remove_prefix(dot + 1);
   }
-  (*at)[std::string(key)] = rounded(value);
+  (*at)[std::string(key)] = rounded_for_output(value);
 }
 
 ordered_json error_json(const CaseOutcome& o) {
@@ -60,7 +52,7 @@ ordered_json uncertainty_json(const UncertaintyResult& u, const machines::Rating
     if (!v || !std::isfinite(*v)) continue;
     const std::optional<double> expanded = k < u.expanded.size() ? u.expanded[k] : std::nullopt;
     out[std::string(keys[k].key)] =
-        expanded ? ordered_json(rounded(*expanded, kUncertaintyDigits)) : ordered_json(nullptr);
+        expanded ? ordered_json(rounded_for_output(*expanded, kUncertaintyDigits)) : ordered_json(nullptr);
   }
   return out;
 }
@@ -92,6 +84,7 @@ ordered_json result_json(const CaseOutcome& o) {
   j["model"] = r.model;
   j["solved_for"] = r.solved_for.keys();
   if (o.input) j["given"] = given_json(*o.input);
+  if (o.input && !o.input->standard_reference.empty()) j["standard_reference"] = o.input->standard_reference;
   for (const ResultKey& k : result_keys()) {
     const std::optional<double> v = k.value(r);
     if (!v) continue;
@@ -110,13 +103,6 @@ ordered_json result_json(const CaseOutcome& o) {
   }
   j["warnings"] = o.warnings;
   return j;
-}
-
-void write_json(std::ostream& out, const std::vector<CaseOutcome>& outcomes) {
-  ordered_json doc;
-  doc["results"] = ordered_json::array();
-  for (const auto& o : outcomes) doc["results"].push_back(result_json(o));
-  out << doc.dump(2, ' ', false, ordered_json::error_handler_t::replace) << '\n';
 }
 
 }  // namespace shaftwork::io

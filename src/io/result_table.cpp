@@ -97,7 +97,9 @@ class CaseTable {
     const GivenValue* given_form = nullptr;
     for (const GivenValue& g : given()) {
       if (machines::spec(g.input).gives != q) continue;
-      row(machines::spec(g.input).label, given_text(g), "given");
+      const bool standard = g.input == Input::standard_volume_flow && !in()->standard_reference.empty();
+      row(machines::spec(g.input).label, given_text(g),
+          standard ? fmt::format("given, at {}", in()->standard_reference) : std::string("given"));
       given_form = &g;
       // A redundant efficiency's result is the one from the states: shown beside it.
       if (!(q == Quantity::efficiency && r_.efficiency_check)) mark(machines::key_of(g.input));
@@ -198,20 +200,15 @@ class CaseTable {
 
 }  // namespace
 
-void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, const TableOptions& options) {
-  bool first = true;
-  for (const auto& o : outcomes) {
-    if (!first) out << '\n';
-    first = false;
-    if (!o.ok()) {
-      out << escape_control(o.id) << '\n';
-      if (options.show_origin && !o.origin.empty()) out << escape_control(fmt::format("  from {}", o.origin)) << '\n';
-      out << "  could not be rated: " << escape_control(o.error) << '\n';
-      for (const auto& w : o.warnings) out << "  warning: " << escape_control(w) << '\n';
-      continue;
-    }
+void write_case_table(std::ostream& out, const CaseOutcome& o, const TableOptions& options) {
+  if (o.ok()) {
     CaseTable(out, o, options).write(options.show_origin);
+    return;
   }
+  out << escape_control(o.id) << '\n';
+  if (options.show_origin && !o.origin.empty()) out << escape_control(fmt::format("  from {}", o.origin)) << '\n';
+  out << "  could not be rated: " << escape_control(o.error) << '\n';
+  for (const auto& w : o.warnings) out << "  warning: " << escape_control(w) << '\n';
 }
 
 }  // namespace shaftwork::io

@@ -170,4 +170,22 @@ bool has_uncertainty(const CaseInput& c) {
   return std::any_of(c.given.begin(), c.given.end(), [](const GivenValue& g) { return g.uncertainty.has_value(); });
 }
 
+namespace {
+
+bool mentions_uncertainty(const json& object, int depth) {
+  if (!object.is_object() || depth > 4) return false;
+  if (object.contains(std::string(kUncertaintyKey))) return true;
+  return std::any_of(object.begin(), object.end(), [&](const json& v) { return mentions_uncertainty(v, depth + 1); });
+}
+
+}  // namespace
+
+bool states_uncertainty(const json& document) {
+  if (!document.is_object()) return false;
+  if (!document.contains("cases")) return mentions_uncertainty(document, 0);
+  const json& cases = document["cases"];
+  return cases.is_array() &&
+         std::any_of(cases.begin(), cases.end(), [](const json& c) { return mentions_uncertainty(c, 0); });
+}
+
 }  // namespace shaftwork::io

@@ -36,7 +36,7 @@ expect "json results carry the contract keys" $?
 # shares under it, the JSON's two keys, the CSV's uncertainty columns.
 "$bin" rate examples/plant-air-field-test.json >"$tmp/u.txt" 2>/dev/null
 grep -qF '  isentropic efficiency          0.7779 ± 0.0042               solved' "$tmp/u.txt" &&
-  grep -qF '    U² from outlet temperature 56 %, inlet temperature 31 %, outlet pressure 10 %' "$tmp/u.txt" &&
+  grep -qF '    U² from outlet temperature 57 %, inlet temperature 31 %, outlet pressure 10 %' "$tmp/u.txt" &&
   grep -qF '  outlet temperature             172.5 degC ± 0.6 K            given' "$tmp/u.txt"
 expect "the table shows ± U and the shares of U²" $? "$(head -20 "$tmp/u.txt")"
 "$bin" rate --format json examples/plant-air-field-test.json 2>/dev/null | /usr/bin/python3 -c '

@@ -25,6 +25,8 @@ inline constexpr std::string_view kMachineKey = "machine";
 inline constexpr std::string_view kFluidKey = "fluid";
 inline constexpr std::string_view kNoteKey = "note";
 inline constexpr std::string_view kUncertaintyKey = "uncertainty";
+// The expected results of `shaftwork check` (io/expectations.hpp reads them; rating ignores them).
+inline constexpr std::string_view kExpectKey = "expect";
 
 // A stated expanded uncertainty (k = 2, about 95 %) of a given value, as on an instrument
 // datasheet: a percent of the reading ("0.25 %") or a difference in the value's own
@@ -54,6 +56,7 @@ struct CaseInput {
   std::shared_ptr<const fluids::FluidModel> fluid;
   std::string fluid_label;  // the fluid's name, or a short readable description
   std::vector<GivenValue> given;  // in the order of machines::kInputs
+  std::string standard_reference;  // a standard volume flow's reference, in words ("" without one)
   std::vector<std::string> warnings;
   // The case's "uncertainty" object by dotted key: the statements the case made for its
   // given values (a batch template's also cover the columns' values).
@@ -63,6 +66,9 @@ struct CaseInput {
   const GivenValue* find(machines::Input input) const;
   // The site barometer [Pa]: given, or one standard atmosphere.
   double barometer() const;
+  // What other values are read against: the barometer (when given) and the site's
+  // standard conditions (when given).
+  units::ParseContext context() const;
   // The unit the user wrote for some given value of dimension `d` ("" if none): results
   // of that dimension are shown in it.
   std::string unit_used_for(units::Dimension d) const;

@@ -4,6 +4,7 @@
 // other cases are rated all the same.
 #pragma once
 
+#include <map>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -30,5 +31,15 @@ std::vector<StatedUncertainty> file_uncertainty(const nlohmann::json& document, 
 // Rates every case of a document. Throws bad_input when it is not a case file.
 std::vector<CaseOutcome> rate_document(const nlohmann::json& document, const std::string& origin,
                                        FluidFactory& fluids);
+
+// Ids seen so far in one run, with where: a second case of one id gets a warning. Shared by
+// rate and check, so that a record check writes is what rate writes.
+class CaseIdRegister {
+ public:
+  void check(CaseOutcome& outcome, size_t index);
+
+ private:
+  std::map<std::string, std::string> seen_;
+};
 
 }  // namespace shaftwork::io

@@ -2,6 +2,7 @@
 // for a person, and CSV for spreadsheets. Every writer takes its keys from result_keys().
 #pragma once
 
+#include <memory>
 #include <optional>
 #include <ostream>
 #include <string>
@@ -36,20 +37,40 @@ struct CaseOutcome {
 // a non-finite value turns the case into an error naming the key).
 nlohmann::ordered_json result_json(const CaseOutcome& outcome);
 
-// {"results": [...]} with two-space indentation.
-void write_json(std::ostream& out, const std::vector<CaseOutcome>& outcomes);
 
 struct TableOptions {
   UnitSystem system = UnitSystem::si;
   bool system_forced = false;  // --units was given: it wins over the units of each case
   bool show_origin = false;    // several files: name each case's file
+  bool uncertainty_columns = false;  // csv: the "uncertainty.<key>" columns (some case states an uncertainty)
 };
-// One block per case: the given values as written, solved ones marked, then the results
-// in the units of the case; redundant values beside their computed twins; warnings.
-void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, const TableOptions& options);
+// One case's block of the table: the given values as written, solved ones marked, then
+// the results in the units of the case; redundant values beside their computed twins;
+// warnings.
+void write_case_table(std::ostream& out, const CaseOutcome& outcome, const TableOptions& options);
 
-// A header row of dotted keys with units in brackets, then one row per case.
-void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, UnitSystem system);
+// The CSV of cases: a header row of dotted keys with units in brackets, and one row per
+// case (each with its CRLF line end); with `uncertainty`, a column "uncertainty.<key> [unit]"
+// for every result key follows the result columns (the results keep their places).
+std::string csv_header(UnitSystem system, bool uncertainty = false);
+std::string csv_row(const CaseOutcome& outcome, UnitSystem system, bool uncertainty = false);
+
+// Results written one case at a time, so that a file of many cases needs memory for one
+// of them: the table, JSON ({"results": [...]} with two-space indentation), JSON lines
+// or CSV.
+class ResultStream {
+ public:
+  virtual ~ResultStream() = default;
+  virtual void add(const CaseOutcome& outcome) = 0;
+  // Closes the document (JSON's brackets); nothing may be added after.
+  virtual void finish() {}
+};
+enum class ResultFormat { table, json, jsonl, csv };
+std::unique_ptr<ResultStream> make_result_stream(ResultFormat format, std::ostream& out, const TableOptions& options);
+
+// The whole document of `outcomes` in one format (tests, small outputs).
+void write_results(std::ostream& out, ResultFormat format, const std::vector<CaseOutcome>& outcomes,
+                   const TableOptions& options = {});
 
 // Quotes a CSV field when it holds a comma, quote or line break (RFC 4180).
 std::string csv_field(std::string_view text);

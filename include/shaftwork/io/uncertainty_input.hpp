@@ -61,4 +61,9 @@ inline double expanded_of(const StatedUncertainty& s, double reading) {
 // True when some given value of `c` carries an uncertainty.
 bool has_uncertainty(const CaseInput& c);
 
+// True when some case of a case document states an uncertainty (an "uncertainty" object, or
+// a value written as {"value": ..., "uncertainty": ...}), read or not: the CSV of the
+// document's results then carries the uncertainty columns from its header on.
+bool states_uncertainty(const nlohmann::json& document);
+
 }  // namespace shaftwork::io

@@ -70,8 +70,10 @@ enum class Input : std::uint8_t {
   efficiency_polytropic,
   mechanical_efficiency,
   barometric_pressure,
+  standard_pressure,
+  standard_temperature,
 };
-inline constexpr std::size_t kInputCount = 17;
+inline constexpr std::size_t kInputCount = 19;
 
 // What one rating is given. Each case value is an optional field; kInputs maps the
 // dotted keys onto them, so code that handles every input (reading, echoing, perturbing)
@@ -170,8 +172,14 @@ inline constexpr std::array<InputSpec, kInputCount> kInputs = {{
      &detail::R::efficiency_polytropic, detail::A::fraction, "polytropic efficiency"},
     {Input::mechanical_efficiency, "mechanical_efficiency", detail::D::fraction, std::nullopt,
      &detail::R::mechanical_efficiency, detail::A::fraction, "mechanical efficiency"},
+    // Read before the others (no RatingInput field): gauge readings need the barometer,
+    // standard volume flows the site's standard conditions when it gives them.
     {Input::barometric_pressure, "site.barometric_pressure", detail::D::pressure, std::nullopt, nullptr,
      detail::A::positive, "site barometer"},
+    {Input::standard_pressure, "site.standard_conditions.pressure", detail::D::pressure, std::nullopt, nullptr,
+     detail::A::positive, "standard pressure"},
+    {Input::standard_temperature, "site.standard_conditions.temperature", detail::D::temperature, std::nullopt,
+     nullptr, detail::A::positive, "standard temperature"},
 }};
 
 constexpr const InputSpec& spec(Input input) { return kInputs[static_cast<std::size_t>(input)]; }
