@@ -314,7 +314,7 @@ void refused(const Point& pt, Quantity a, Quantity b, const std::string& pattern
     return;
   }
   ++tally.refused;
-  if (tally.refused <= 20) std::cout << "  REFUSED " << describe(pt, pattern) << ": " << message << "\n";
+  if (tally.refused <= 200) std::cout << "  REFUSED " << describe(pt, pattern) << ": " << message << "\n";
 }
 
 // The 21 pairs of one point.
