@@ -234,11 +234,13 @@ bool PathSolver::follow_saturation(std::size_t k) {
   }
   const double limit = 0.5 * std::min(std::fabs(a.length()), std::fabs(b.length()));
   if (std::fabs(dx) > limit) {
-    // The crossing lies far from here (beyond a neighbouring segment, perhaps): steps held to
-    // a part of a shrinking segment would close in geometrically, never arriving. The mark
-    // goes; the next sweep cuts where the path's nodes change region.
-    a.crossing_end = b.crossing_start = false;
-    return true;
+    // The crossing lies far from here (beyond a neighbouring segment, perhaps), or the
+    // saturated states are out of step with the regions (IF97's wet states next to region 3):
+    // steps held to a part of a shrinking segment would close in geometrically, never
+    // arriving, and a mark taken off would be put back where the nodes change region, again
+    // and again. The crossing is followed by the regions from here on.
+    c.saturation = false;
+    return relocate(k);
   }
   const double x = x_b + dx;
   if (!fix_saturation_line(c, a.form, x)) return false;
@@ -252,10 +254,8 @@ bool PathSolver::follow_saturation(std::size_t k) {
 bool PathSolver::relocate(std::size_t k) {
   Segment& a = segments_[k];
   Segment& b = segments_[k + 1];
-  if (a.region_near_end() == b.region_near_start()) {  // the path no longer crosses here
-    a.crossing_end = b.crossing_start = false;
-    return true;
-  }
+  // The nodes next to the boundary may both lie on one side (the crossing moved past one of
+  // them): the search tells whether the path still crosses near by.
   Crossing c = a.crossing;
   const double old = a.x1;
   const double reach[2] = {a.nodes[1].x, b.nodes[kLast - 1].x};
