@@ -46,6 +46,50 @@ std::pair<double, double> valid_edge(const std::function<double(double)>& f, dou
   return {inside, inside_value};
 }
 
+// Two roots closer together than the scan's points (f touching zero near an extremum, as a
+// pump's work does near water's density maximum at 277 K): where |f| dips between two scan
+// points of the same sign, golden-section search (Kiefer, Proc. AMS 4 (1953) 502) for the
+// extremum of f; if it reaches across zero, the roots either side of it.
+struct Sample {
+  double x;
+  std::optional<double> v;
+};
+
+std::vector<Sample> sample(const std::function<double(double)>& f, double low, double high, int points) {
+  std::vector<Sample> samples;
+  for (int i = 0; i <= points; ++i) {
+    const double x = low * std::pow(high / low, static_cast<double>(i) / points);
+    samples.push_back({x, evaluate(f, x)});
+  }
+  return samples;
+}
+
+std::optional<ScanRoot> dip_root(const std::function<double(double)>& f, const std::vector<Sample>& s,
+                                 std::size_t from, const std::string& what) {
+  const double g = 0.5 * (std::sqrt(5.0) - 1.0);
+  for (std::size_t i = from + 1; i + 1 < s.size(); ++i) {
+    if (!s[i - 1].v || !s[i].v || !s[i + 1].v) continue;
+    const double sign = *s[i].v > 0 ? 1.0 : -1.0;
+    if (!(sign * *s[i].v < sign * *s[i - 1].v && sign * *s[i].v < sign * *s[i + 1].v)) continue;
+    double a = s[i - 1].x, b = s[i + 1].x;
+    for (int k = 0; k < 60 && b - a > 1e-13 * b; ++k) {
+      const double c = b - g * (b - a), d = a + g * (b - a);
+      const auto fc = evaluate(f, c), fd = evaluate(f, d);
+      if (!fc || !fd) break;
+      if (sign * *fc <= 0 || sign * *fd <= 0) {
+        const double m = sign * *fc <= 0 ? c : d;
+        return ScanRoot{close_on(f, s[i - 1].x, m, what), close_on(f, m, s[i + 1].x, what)};
+      }
+      if (sign * *fc < sign * *fd) {
+        b = d;
+      } else {
+        a = c;
+      }
+    }
+  }
+  return std::nullopt;
+}
+
 // One scan over `points` log-spaced intervals: the first root and the start of a second. With
 // `edges`, an interval where f becomes evaluable (or stops being so) is searched for where, and
 // f there counts as a scan point: a root between the edge of the valid range and the first
@@ -54,6 +98,8 @@ std::pair<double, double> valid_edge(const std::function<double(double)>& f, dou
 std::optional<ScanRoot> scan(const std::function<double(double)>& f, double low, double high, int points,
                              const std::string& what, bool edges = false) {
   std::optional<ScanRoot> found;
+  std::vector<Sample> samples;
+  std::size_t found_at = 0;
   std::optional<double> previous;
   double previous_x = low;
   bool previous_valid = true;
@@ -72,50 +118,25 @@ std::optional<ScanRoot> scan(const std::function<double(double)>& f, double low,
       }
     }
     previous_valid = v.has_value();
+    samples.push_back({x, v});
     if (!v) continue;
     const bool crossed = *v == 0 || (previous && *previous != 0 && ((*previous > 0) != (*v > 0)));
     if (crossed && found) {
       found->another = x;
       return found;
     }
-    if (crossed) found = ScanRoot{*v == 0 ? x : close_on(f, previous_x, x, what), std::nullopt};
+    if (crossed) {
+      found = ScanRoot{*v == 0 ? x : close_on(f, previous_x, x, what), std::nullopt};
+      found_at = samples.size() - 1;
+    }
     previous = v;
     previous_x = x;
   }
-  return found;
-}
-
-// Two roots closer together than the scan's points (f touching zero near an extremum, as a
-// pump's work does near water's density maximum at 277 K): where |f| dips between two scan
-// points of the same sign, golden-section search (Kiefer, Proc. AMS 4 (1953) 502) for the
-// extremum of f; if it reaches across zero, the roots either side of it.
-std::optional<ScanRoot> dip_root(const std::function<double(double)>& f, double low, double high, int points,
-                                 const std::string& what) {
-  const auto at = [&](std::size_t i) { return low * std::pow(high / low, static_cast<double>(i) / points); };
-  std::vector<std::optional<double>> v(static_cast<std::size_t>(points) + 1);
-  for (std::size_t i = 0; i < v.size(); ++i) v[i] = evaluate(f, at(i));
-  const double g = 0.5 * (std::sqrt(5.0) - 1.0);
-  for (std::size_t i = 1; i + 1 < v.size(); ++i) {
-    if (!v[i - 1] || !v[i] || !v[i + 1]) continue;
-    const double sign = *v[i] > 0 ? 1.0 : -1.0;
-    if (!(sign * *v[i] < sign * *v[i - 1] && sign * *v[i] < sign * *v[i + 1])) continue;
-    double a = at(i - 1), b = at(i + 1);
-    for (int k = 0; k < 60 && b - a > 1e-13 * b; ++k) {
-      const double c = b - g * (b - a), d = a + g * (b - a);
-      const auto fc = evaluate(f, c), fd = evaluate(f, d);
-      if (!fc || !fd) break;
-      if (sign * *fc <= 0 || sign * *fd <= 0) {
-        const double m = sign * *fc <= 0 ? c : d;
-        return ScanRoot{close_on(f, at(i - 1), m, what), close_on(f, m, at(i + 1), what)};
-      }
-      if (sign * *fc < sign * *fd) {
-        b = d;
-      } else {
-        a = c;
-      }
-    }
+  // No second change of sign: a second solution may still touch zero between two points.
+  if (found) {
+    if (const auto dip = dip_root(f, samples, found_at, what)) found->another = dip->x;
   }
-  return std::nullopt;
+  return found;
 }
 
 }  // namespace
@@ -126,7 +147,7 @@ ScanRoot scan_for_root(const std::function<double(double)>& f, double low, doubl
     if (auto root = scan(f, low, high, points, what)) return *root;
   }
   if (auto root = scan(f, low, high, 48, what, true)) return *root;
-  if (auto root = dip_root(f, low, high, 384, what)) return *root;
+  if (auto root = dip_root(f, sample(f, low, high, 384), 0, what)) return *root;
   refuse(no_solution);
 }
 
