@@ -30,6 +30,17 @@ RatingInput steam_turbine(EfficiencyBasis basis, double eta) {
   return in;
 }
 
+RatingInput water_pump(double p2) {
+  RatingInput in;
+  in.machine = MachineKind::pump;
+  in.fluid = std::make_shared<const fluids::IapwsIf97>();
+  in.inlet_pressure = 1e5;
+  in.inlet_temperature = 293.15;
+  in.outlet_pressure = p2;
+  in.mass_flow = 1.0;
+  return in;
+}
+
 }  // namespace
 
 TEST_CASE("steam turbine at efficiency exactly 1, isentropic and polytropic, reaches the isentrope", "[if97][edges]") {
@@ -52,13 +63,7 @@ TEST_CASE("efficiencies below 0.02 rate on steam and water", "[if97][edges]") {
     CHECK(eta == Approx(0.015).epsilon(1e-9));
     CHECK(r.outlet.enthalpy < 3214373.5088712324);  // a turbine still gives work
   }
-  RatingInput pump;
-  pump.machine = MachineKind::pump;
-  pump.fluid = std::make_shared<const fluids::IapwsIf97>();
-  pump.inlet_pressure = 1e5;
-  pump.inlet_temperature = 293.15;
-  pump.outlet_pressure = 1e6;
-  pump.mass_flow = 1.0;
+  RatingInput pump = water_pump(1e6);
   machines::set_efficiency(pump, EfficiencyBasis::polytropic, 0.01);
   const auto r = machines::rate(pump);
   CHECK(r.efficiency_polytropic == Approx(0.01).epsilon(1e-9));
@@ -66,13 +71,7 @@ TEST_CASE("efficiencies below 0.02 rate on steam and water", "[if97][edges]") {
 }
 
 TEST_CASE("exactly 100 MPa, IF97's upper pressure, is accepted as an outlet", "[if97][edges]") {
-  RatingInput pump;
-  pump.machine = MachineKind::pump;
-  pump.fluid = std::make_shared<const fluids::IapwsIf97>();
-  pump.inlet_pressure = 1e5;
-  pump.inlet_temperature = 293.15;
-  pump.outlet_pressure = 100e6;
-  pump.mass_flow = 1.0;
+  RatingInput pump = water_pump(100e6);
   for (const auto basis : {EfficiencyBasis::isentropic, EfficiencyBasis::polytropic}) {
     machines::set_efficiency(pump, basis, 0.8);
     const auto r = machines::rate(pump);
