@@ -101,9 +101,11 @@ bool PathSolver::split_at_region_change() {
     }
     if (further) {
       segments_[k - 1].crossing = c;
+      take_crossing_form(k - 1);
       move_boundary(k - 1, x);  // the crossing at the start lies further on
     } else if (rest_beyond) {
       segments_[k].crossing = c;
+      take_crossing_form(k);
       move_boundary(k, x);  // the crossing at the end lies earlier
     } else {
       split(k, x, &c);
@@ -232,11 +234,13 @@ bool PathSolver::follow_saturation(std::size_t k) {
   }
   const double limit = 0.5 * std::min(std::fabs(a.length()), std::fabs(b.length()));
   if (std::fabs(dx) > limit) {
-    // The crossing lies far from here (beyond a neighbouring segment, perhaps): steps held to
-    // a part of a shrinking segment would close in geometrically, never arriving. The mark
-    // goes; the next sweep cuts where the path's nodes change region.
-    a.crossing_end = b.crossing_start = false;
-    return true;
+    // The crossing lies far from here (beyond a neighbouring segment, perhaps), or the
+    // saturated states are out of step with the regions (IF97's wet states next to region 3):
+    // steps held to a part of a shrinking segment would close in geometrically, never
+    // arriving, and a mark taken off would be put back where the nodes change region, again
+    // and again. The crossing is followed by the regions from here on.
+    c.saturation = false;
+    return relocate(k);
   }
   const double x = x_b + dx;
   if (!fix_saturation_line(c, a.form, x)) return false;
@@ -250,10 +254,8 @@ bool PathSolver::follow_saturation(std::size_t k) {
 bool PathSolver::relocate(std::size_t k) {
   Segment& a = segments_[k];
   Segment& b = segments_[k + 1];
-  if (a.region_near_end() == b.region_near_start()) {  // the path no longer crosses here
-    a.crossing_end = b.crossing_start = false;
-    return true;
-  }
+  // The nodes next to the boundary may both lie on one side (the crossing moved past one of
+  // them): the search tells whether the path still crosses near by.
   Crossing c = a.crossing;
   const double old = a.x1;
   const double reach[2] = {a.nodes[1].x, b.nodes[kLast - 1].x};
@@ -304,12 +306,16 @@ void PathSolver::split(std::size_t k, double x, const Crossing* crossing) {
       if (k > 0) {
         segments_[k - 1].crossing_end = true;
         segments_[k - 1].crossing = *crossing;
+        take_crossing_form(k - 1);
       }
     } else {
       seg.crossing_end = true;
       seg.crossing = *crossing;
       seg.nodes[kLast].evaluated = false;
-      if (k + 1 < segments_.size()) segments_[k + 1].crossing_start = true;
+      if (k + 1 < segments_.size()) {
+        segments_[k + 1].crossing_start = true;
+        take_crossing_form(k);
+      }
     }
     return;
   }
@@ -348,9 +354,37 @@ void PathSolver::split(std::size_t k, double x, const Crossing* crossing) {
       evaluate_at(node, part->form, whole.form, node.y, node.x, part->form == Form::enthalpy);
     }
   }
+  refresh_saturation_line(second);
   segments_[k] = first;
   segments_.insert(segments_.begin() + static_cast<std::ptrdiff_t>(k) + 1, second);
   corrections_.insert(corrections_.begin() + static_cast<std::ptrdiff_t>(k) + 1, corrections_[k]);
+}
+
+// A saturation crossing at the end of `seg` records the saturated value in the segment's form:
+// after the segment changed form, it is taken anew.
+void PathSolver::refresh_saturation_line(Segment& seg) const {
+  if (seg.crossing_end && seg.crossing.saturation && !fix_saturation_line(seg.crossing, seg.form, seg.crossing.x)) {
+    seg.crossing.saturation = false;
+  }
+}
+
+// Across IF97's boundaries other than the saturation line the regions' (p, s) and (p, h)
+// rules disagree in a thin band, and IF97's equations there agree only within its consistency
+// limits (the entropies at one (p, h) by up to about 1e-3 J/(kg K)): which equation holds must
+// follow the path's enthalpy, as it is what is continuous. Both segments at such a crossing
+// (the one ending at k's end and the next) take the enthalpy form, their nodes converted from
+// exact states; the nodes at the crossing are evaluated anew, a hair inside each side.
+void PathSolver::take_crossing_form(std::size_t k) {
+  if (segments_[k].crossing.saturation) return;
+  for (std::size_t j : {k, k + 1}) {
+    Segment& seg = segments_[j];
+    if (seg.form == Form::enthalpy) continue;
+    for (Node& node : seg.nodes) evaluate_at(node, Form::enthalpy, seg.form, node.y, node.x, false);
+    seg.form = Form::enthalpy;
+    refresh_saturation_line(seg);
+  }
+  segments_[k].nodes[kLast].evaluated = false;
+  segments_[k + 1].nodes[0].evaluated = false;
 }
 
 // Moves the boundary between segments k and k + 1 to x, re-placing both segments' nodes:

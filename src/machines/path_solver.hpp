@@ -156,6 +156,8 @@ class PathSolver {
   bool relocate(std::size_t k);
   std::optional<double> search_crossing(Crossing& c, const PathView& path, double old, const double (&reach)[2]);
   void split(std::size_t k, double x, const Crossing* crossing);
+  void take_crossing_form(std::size_t k);
+  void refresh_saturation_line(Segment& seg) const;
   void move_boundary(std::size_t k, double x);
   void carry_over(Segment& seg, const Segment& old, std::size_t first) const;
   PathView view(std::size_t k) const { return {segments_[k], segments_[k + 1], length_ > 0}; }

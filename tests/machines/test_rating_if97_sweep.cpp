@@ -104,11 +104,12 @@ class Generator {
     pt.h2 = pt.forward.outlet.enthalpy;
     pt.P = pt.forward.power.value();
     pt.wet_outlet = pt.forward.outlet.is_wet();
-    // rate() takes a turbine's outlet temperature below saturation for a wet exhaust and
-    // refuses it (src/machines/rating.cpp; a temperature does not fix a wet state); a liquid
-    // outlet of a turbine (hot water expanding) is then given by its enthalpy, as a wet one is.
+    // rate() refuses an outlet temperature within 0.5 K of saturation, and a turbine's below
+    // it (docs/method.md, "Wet steam": a temperature does not fix a wet state); such an outlet,
+    // like a wet one, is given by its enthalpy.
     const auto Ts = kWater->saturation_temperature(pt.p2);
-    pt.by_enthalpy = pt.wet_outlet || (pt.machine == MachineKind::turbine && Ts && pt.T2 < *Ts);
+    pt.by_enthalpy = pt.wet_outlet ||
+                     (Ts && (std::fabs(pt.T2 - *Ts) <= 0.5 || (pt.machine == MachineKind::turbine && pt.T2 < *Ts)));
     return pt;
   }
 
@@ -314,7 +315,7 @@ void refused(const Point& pt, Quantity a, Quantity b, const std::string& pattern
     return;
   }
   ++tally.refused;
-  if (tally.refused <= 20) std::cout << "  REFUSED " << describe(pt, pattern) << ": " << message << "\n";
+  if (tally.refused <= 200) std::cout << "  REFUSED " << describe(pt, pattern) << ": " << message << "\n";
 }
 
 // The 21 pairs of one point.
