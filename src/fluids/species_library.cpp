@@ -497,149 +497,168 @@ SpeciesLibrary SpeciesLibrary::parse_nasa9(std::string_view text, const std::str
 // temperatures (low, common, high); the common one stands in for a blank T common.
 // 'END' ends the section.
 
+namespace {
+
+// The THERMO line's optional second line: the default lower, common and upper temperatures.
+// Returns the common one when the line holds three numbers (and steps past it).
+std::optional<double> read_thermo_defaults(const std::vector<Line>& lines, std::size_t& i) {
+  while (i < lines.size() && is_comment_line(lines[i].text)) ++i;
+  if (i >= lines.size()) return std::nullopt;
+  const auto words = split_words(lines[i].text);
+  if (words.size() < 3 || !parse_number(words[0]) || !parse_number(words[1]) || !parse_number(words[2])) {
+    return std::nullopt;
+  }
+  ++i;
+  return parse_number(words[1]);
+}
+
+// The four lines of the record at `start` are there, each numbered in column 80 (a wrong
+// digit means a line is missing or extra).
+void check_record_lines(const std::vector<Line>& lines, std::size_t start, const std::string& name,
+                        const std::string& origin) {
+  const int record_line = lines[start].number;
+  if (start + 3 >= lines.size()) {
+    fail(origin, lines.back().number,
+         fmt::format("{}: the record that begins on line {} ends early: line {} of 4 is missing", name,
+                     record_line, lines.size() - start + 1));
+  }
+  for (std::size_t r = 0; r < 4; ++r) {
+    const Line& line = lines[start + r];
+    const std::string_view mark = trim(columns(line.text, 80, 80));
+    if (!mark.empty() && mark.front() != static_cast<char>('1' + r)) {
+      fail(origin, line.number,
+           fmt::format("{}: this should be line {} of the record (column 80 '{}'), found '{}'; is "
+                       "a line missing?",
+                       name, r + 1, r + 1, mark));
+    }
+  }
+}
+
+// A fifth element of the formula, in columns 74-78 (then the common temperature ends at 73).
+bool has_fifth_element(const Line& head) {
+  const std::string_view t = head.text;
+  return std::any_of(t.begin() + std::min<std::size_t>(73, t.size()), t.begin() + std::min<std::size_t>(75, t.size()),
+                     [](char c) { return std::isalpha(static_cast<unsigned char>(c)); });
+}
+
+// The molar mass (in the atomic weights' unit) from the elemental formula of the head line.
+double nasa7_molar_mass(const Line& head, const std::string& name, const std::string& origin) {
+  std::vector<std::pair<std::size_t, std::size_t>> fields = {{25, 29}, {30, 34}, {35, 39}, {40, 44}};
+  if (has_fifth_element(head)) fields.emplace_back(74, 78);
+  double molar_mass = 0;
+  for (const auto& [first, last] : fields) {
+    const std::string_view symbol_field = trim(columns(head.text, first, first + 1));
+    const std::string_view count_field = trim(columns(head.text, first + 2, last));
+    if (symbol_field.empty() && (count_field.empty() || parse_number(count_field) == 0.0)) continue;
+    const auto count = parse_number(count_field);
+    if (!count || *count < 0) {
+      fail(origin, head.number,
+           fmt::format("{}: columns {}-{} should hold an element count, found '{}'", name, first + 2, last,
+                       columns(head.text, first + 2, last)));
+    }
+    if (*count == 0) continue;
+    std::string symbol(symbol_field);
+    for (char& c : symbol) c = static_cast<char>(std::toupper(static_cast<unsigned char>(c)));
+    const auto found = atomic_weights().find(symbol);
+    if (found == atomic_weights().end()) {
+      fail(origin, head.number,
+           fmt::format("{}: element '{}' of the formula (columns {}-{}) is not known", name, symbol_field, first,
+                       first + 1));
+    }
+    molar_mass += *count * found->second;
+  }
+  if (!(molar_mass > 0)) {
+    fail(origin, head.number,
+         fmt::format("{}: columns 25-44 should hold the elemental formula, found '{}'", name,
+                     trim(columns(head.text, 25, 44))));
+  }
+  return molar_mass;
+}
+
+// The two intervals of a 7-coefficient record: temperatures from the head line (a blank
+// common temperature takes the THERMO line's), the 14 coefficients from lines 2-4.
+std::vector<NasaInterval> nasa7_intervals(const std::vector<Line>& lines, std::size_t start,
+                                          std::optional<double> default_common, const std::string& name,
+                                          const std::string& origin) {
+  const Line& head = lines[start];
+  const auto number_at = [&](const Line& line, std::size_t first, std::size_t last, const std::string& what) {
+    return number_in_columns(line, first, last, what, name, origin);
+  };
+  const double t_low = number_at(head, 46, 55, "the lower temperature");
+  const double t_high = number_at(head, 56, 65, "the upper temperature");
+  const std::size_t common_last = has_fifth_element(head) ? 73 : 75;
+  double t_common = 0;
+  if (!trim(columns(head.text, 66, common_last)).empty()) {
+    t_common = number_at(head, 66, common_last, "the common temperature");
+  } else if (default_common) {
+    t_common = *default_common;
+  } else {
+    fail(origin, head.number,
+         fmt::format("{}: columns 66-73 (the common temperature) are blank and no THERMO line gives a default", name));
+  }
+  double c[14];  // upper a1..a7, then lower a1..a7
+  for (std::size_t k = 0; k < 14; ++k) {
+    const std::size_t first = 1 + 15 * (k % 5);
+    c[k] = number_at(lines[start + 1 + k / 5], first, first + 14,
+                     fmt::format("coefficient a{} of the {} interval", k % 7 + 1, k < 7 ? "upper" : "lower"));
+  }
+  const auto interval_from = [](double low, double high, const double* a) {
+    NasaInterval in;
+    in.t_low = low;
+    in.t_high = high;
+    in.a = {0, 0, a[0], a[1], a[2], a[3], a[4]};
+    in.b1 = a[5];
+    in.b2 = a[6];
+    return in;
+  };
+  return {interval_from(t_low, t_common, c + 7), interval_from(t_common, t_high, c)};
+}
+
+// The 7-coefficient record at `start`, or nothing for a condensed phase (not an ideal gas).
+std::optional<NasaSpecies> parse_nasa7_record(const std::vector<Line>& lines, std::size_t start,
+                                              std::optional<double> default_common, const std::string& origin) {
+  const Line& head = lines[start];
+  const auto name_words = split_words(columns(head.text, 1, 18));
+  if (name_words.empty()) fail(origin, head.number, "columns 1-18 should begin with a species name");
+  NasaSpecies sp;
+  sp.name = std::string(name_words.front());
+  check_record_lines(lines, start, sp.name, origin);
+  const std::string_view phase = trim(columns(head.text, 45, 45));
+  if (phase.size() != 1 || std::string_view("GgLlSs").find(phase.front()) == std::string_view::npos) {
+    fail(origin, head.number, fmt::format("{}: column 45 should hold the phase, G, L or S, found '{}'", sp.name, phase));
+  }
+  if (phase != "G" && phase != "g") return std::nullopt;
+  sp.molar_mass = nasa7_molar_mass(head, sp.name, origin);
+  sp.intervals = nasa7_intervals(lines, start, default_common, sp.name, origin);
+  const std::string date(trim(columns(head.text, 19, 24)));
+  sp.source = fmt::format("{} line {} (NASA 7-coefficient record{})", origin, head.number,
+                          date.empty() ? std::string() : ", date/code " + date);
+  return sp;
+}
+
+}  // namespace
+
 SpeciesLibrary SpeciesLibrary::parse_nasa7(std::string_view text, const std::string& origin) {
   const std::vector<Line> lines = split_lines(text);
   Builder builder(origin);
-  std::optional<double> global_common;
+  std::optional<double> default_common;
   std::size_t i = 0;
   while (i < lines.size()) {
+    const std::string word = is_comment_line(lines[i].text) ? std::string() : first_word_upper(lines[i].text);
     if (is_comment_line(lines[i].text)) {
       ++i;
-      continue;
-    }
-    const std::string word = first_word_upper(lines[i].text);
-    if (word == "THERMO") {
+    } else if (word == "THERMO") {
       ++i;
-      while (i < lines.size() && is_comment_line(lines[i].text)) ++i;
-      if (i < lines.size()) {
-        const auto words = split_words(lines[i].text);
-        if (words.size() >= 3 && parse_number(words[0]) && parse_number(words[1]) &&
-            parse_number(words[2])) {
-          global_common = parse_number(words[1]);
-          ++i;
-        }
-      }
-      continue;
-    }
-    if (word == "END") break;
-
-    const std::size_t start = i;
-    const int record_line = lines[start].number;
-    NasaSpecies sp;
-    const auto name_words = split_words(columns(lines[start].text, 1, 18));
-    if (name_words.empty()) {
-      fail(origin, record_line, "columns 1-18 should begin with a species name");
-    }
-    sp.name = std::string(name_words.front());
-    for (std::size_t r = 1; r < 4; ++r) {
-      if (start + r >= lines.size()) {
-        fail(origin, lines.back().number,
-             fmt::format("{}: the record that begins on line {} ends early: line {} of 4 is missing",
-                         sp.name, record_line, r + 1));
-      }
-    }
-    // Column 80 numbers the record's lines; a wrong digit means a line is missing or extra.
-    for (std::size_t r = 0; r < 4; ++r) {
-      const Line& line = lines[start + r];
-      const std::string_view mark = trim(columns(line.text, 80, 80));
-      if (!mark.empty() && mark.front() != static_cast<char>('1' + r)) {
-        fail(origin, line.number,
-             fmt::format("{}: this should be line {} of the record (column 80 '{}'), found '{}'; is "
-                         "a line missing?",
-                         sp.name, r + 1, r + 1, mark));
-      }
-    }
-    auto number_at = [&](const Line& line, std::size_t first, std::size_t last, const std::string& what) {
-      return number_in_columns(line, first, last, what, sp.name, origin);
-    };
-
-    const Line& head = lines[start];
-    const std::string date(trim(columns(head.text, 19, 24)));
-    const std::string_view phase = trim(columns(head.text, 45, 45));
-    if (phase != "G" && phase != "g" && phase != "L" && phase != "l" && phase != "S" && phase != "s") {
-      fail(origin, head.number,
-           fmt::format("{}: column 45 should hold the phase, G, L or S, found '{}'", sp.name, phase));
-    }
-    if (phase != "G" && phase != "g") {  // a condensed phase: not an ideal gas, skipped
-      i = start + 4;
-      continue;
-    }
-
-    // The elemental formula gives the molar mass.
-    const bool fifth_element = std::any_of(head.text.begin() + std::min<std::size_t>(73, head.text.size()),
-                                           head.text.begin() + std::min<std::size_t>(75, head.text.size()),
-                                           [](char c) { return std::isalpha(static_cast<unsigned char>(c)); });
-    std::vector<std::pair<std::size_t, std::size_t>> element_fields = {{25, 29}, {30, 34}, {35, 39}, {40, 44}};
-    if (fifth_element) element_fields.emplace_back(74, 78);
-    double molar_mass = 0;
-    for (const auto& [first, last] : element_fields) {
-      const std::string_view symbol_field = trim(columns(head.text, first, first + 1));
-      const std::string_view count_field = trim(columns(head.text, first + 2, last));
-      if (symbol_field.empty() && (count_field.empty() || parse_number(count_field) == 0.0)) continue;
-      const auto count = parse_number(count_field);
-      if (!count || *count < 0) {
-        fail(origin, head.number,
-             fmt::format("{}: columns {}-{} should hold an element count, found '{}'", sp.name,
-                         first + 2, last, columns(head.text, first + 2, last)));
-      }
-      if (*count == 0) continue;
-      std::string symbol(symbol_field);
-      for (char& c : symbol) c = static_cast<char>(std::toupper(static_cast<unsigned char>(c)));
-      const auto& weights = atomic_weights();
-      const auto found = weights.find(symbol);
-      if (found == weights.end()) {
-        fail(origin, head.number,
-             fmt::format("{}: element '{}' of the formula (columns {}-{}) is not known", sp.name,
-                         symbol_field, first, first + 1));
-      }
-      molar_mass += *count * found->second;
-    }
-    if (!(molar_mass > 0)) {
-      fail(origin, head.number,
-           fmt::format("{}: columns 25-44 should hold the elemental formula, found '{}'", sp.name,
-                       trim(columns(head.text, 25, 44))));
-    }
-    sp.molar_mass = molar_mass;
-
-    const double t_low = number_at(head, 46, 55, "the lower temperature");
-    const double t_high = number_at(head, 56, 65, "the upper temperature");
-    const std::size_t common_last = fifth_element ? 73 : 75;
-    double t_common = 0;
-    if (trim(columns(head.text, 66, common_last)).empty()) {
-      if (!global_common) {
-        fail(origin, head.number,
-             fmt::format("{}: columns 66-73 (the common temperature) are blank and no THERMO line "
-                         "gives a default",
-                         sp.name));
-      }
-      t_common = *global_common;
+      if (const auto common = read_thermo_defaults(lines, i)) default_common = common;
+    } else if (word == "END") {
+      break;
     } else {
-      t_common = number_at(head, 66, common_last, "the common temperature");
+      const int record_line = lines[i].number;
+      if (auto sp = parse_nasa7_record(lines, i, default_common, origin)) {
+        builder.add(std::move(*sp), record_line, {record_line, record_line});
+      }
+      i += 4;
     }
-
-    double c[14];  // upper a1..a7, then lower a1..a7
-    const Line* coefficient_lines[3] = {&lines[start + 1], &lines[start + 2], &lines[start + 3]};
-    for (std::size_t k = 0; k < 14; ++k) {
-      const Line& line = *coefficient_lines[k / 5];
-      const std::size_t first = 1 + 15 * (k % 5);
-      const char* interval = k < 7 ? "upper" : "lower";
-      c[k] = number_at(line, first, first + 14,
-                       fmt::format("coefficient a{} of the {} interval", k % 7 + 1, interval));
-    }
-    auto interval_from = [](double low, double high, const double* a) {
-      NasaInterval in;
-      in.t_low = low;
-      in.t_high = high;
-      in.a = {0, 0, a[0], a[1], a[2], a[3], a[4]};
-      in.b1 = a[5];
-      in.b2 = a[6];
-      return in;
-    };
-    sp.intervals = {interval_from(t_low, t_common, c + 7), interval_from(t_common, t_high, c)};
-    sp.source = fmt::format("{} line {} (NASA 7-coefficient record{})", origin, record_line,
-                            date.empty() ? std::string() : ", date/code " + date);
-    builder.add(std::move(sp), record_line, {record_line, record_line});
-    i = start + 4;
   }
   return from_parts(std::move(builder.species), std::move(builder.aliases));
 }
