@@ -359,6 +359,122 @@ SpeciesLibrary SpeciesLibrary::from_parts(std::vector<NasaSpecies> species,
 //         (b) a0..a4 in 5 fields of 16 columns; (c) a5, a6 in columns 1-32, columns 33-48
 //         blank or zero, b1 in 49-64, b2 in 65-80.
 
+namespace {
+
+// The line after 'thermo': the global temperature ranges (and a date). Steps past it.
+void skip_thermo_ranges(const std::vector<Line>& lines, std::size_t& i, const std::string& origin) {
+  const int thermo_line = lines[i].number;
+  ++i;
+  while (i < lines.size() && is_comment_line(lines[i].text)) ++i;
+  const auto words = i < lines.size() ? split_words(lines[i].text) : std::vector<std::string_view>{};
+  if (words.empty() || !parse_number(words[0])) {
+    fail(origin, i < lines.size() ? lines[i].number : thermo_line,
+         "'thermo' must be followed by the line of global temperature ranges, e.g. '200.00 "
+         "1000.00 6000.00 20000.'");
+  }
+  ++i;
+}
+
+// The lines of one 9-coefficient record, each fetched with what it should hold.
+struct Nasa9Record {
+  const std::vector<Line>& lines;
+  std::size_t start;
+  std::string name;
+  const std::string& origin;
+
+  // The line `offset` after the first, or an error saying what is missing.
+  const Line& at(std::size_t offset, const std::string& what) const {
+    if (start + offset >= lines.size()) {
+      fail(origin, lines.back().number,
+           fmt::format("{}: the record that begins on line {} ends early: {} is missing", name, lines[start].number,
+                       what));
+    }
+    return lines[start + offset];
+  }
+  double number(const Line& line, std::size_t first, std::size_t last, const std::string& what) const {
+    return number_in_columns(line, first, last, what, name, origin);
+  }
+};
+
+// The temperature line of interval k: its range, the count 7 and the fixed exponents.
+void read_nasa9_temperatures(const Nasa9Record& rec, const Line& t_line, const std::string& which, NasaInterval& in) {
+  in.t_low = rec.number(t_line, 1, 11, fmt::format("the lower temperature of {}", which));
+  in.t_high = rec.number(t_line, 12, 22, fmt::format("the upper temperature of {}", which));
+  if (rec.number(t_line, 23, 23, "the number of coefficients (7)") != 7) {
+    fail(rec.origin, t_line.number,
+         fmt::format("{}: column 23 should hold 7, the number of cp coefficients, found '{}'", rec.name,
+                     columns(t_line.text, 23, 23)));
+  }
+  static constexpr double kExponents[8] = {-2, -1, 0, 1, 2, 3, 4, 0};
+  for (std::size_t e = 0; e < 8; ++e) {
+    const std::size_t first = 24 + 5 * e;
+    if (rec.number(t_line, first, first + 4, "a temperature exponent") != kExponents[e]) {
+      fail(rec.origin, t_line.number,
+           fmt::format("{}: the temperature exponents in columns 24-63 must be -2 -1 0 1 2 3 4 0, found '{}'",
+                       rec.name, trim(columns(t_line.text, 24, 63))));
+    }
+  }
+}
+
+// Interval k (0-based) of `count`: its temperature line and two coefficient lines.
+NasaInterval read_nasa9_interval(const Nasa9Record& rec, std::size_t k, std::size_t count) {
+  const std::string which = fmt::format("interval {} of {}", k + 1, count);
+  const Line& t_line = rec.at(2 + 3 * k, fmt::format("the temperature line of {}", which));
+  const Line& c_line = rec.at(3 + 3 * k, fmt::format("the first coefficient line of {}", which));
+  const Line& d_line = rec.at(4 + 3 * k, fmt::format("the second coefficient line of {}", which));
+  NasaInterval in;
+  read_nasa9_temperatures(rec, t_line, which, in);
+  for (std::size_t j = 0; j < 5; ++j) {
+    in.a[j] = rec.number(c_line, 1 + 16 * j, 16 + 16 * j, fmt::format("coefficient a{} of interval {}", j, k + 1));
+  }
+  in.a[5] = rec.number(d_line, 1, 16, fmt::format("coefficient a5 of interval {}", k + 1));
+  in.a[6] = rec.number(d_line, 17, 32, fmt::format("coefficient a6 of interval {}", k + 1));
+  if (!trim(columns(d_line.text, 33, 48)).empty() &&
+      rec.number(d_line, 33, 48, "a blank or zero eighth coefficient") != 0) {
+    fail(rec.origin, d_line.number,
+         fmt::format("{}: columns 33-48 (an eighth coefficient) must be blank or zero", rec.name));
+  }
+  in.b1 = rec.number(d_line, 49, 64, fmt::format("the constant b1 of interval {}", k + 1));
+  in.b2 = rec.number(d_line, 65, 80, fmt::format("the constant b2 of interval {}", k + 1));
+  return in;
+}
+
+// One record at `start`: adds a gas to `builder` (a condensed phase or a reactant with an
+// assigned enthalpy only is skipped); returns the number of lines the record takes.
+std::size_t parse_nasa9_record(const std::vector<Line>& lines, std::size_t start, Builder& builder,
+                               const std::string& origin) {
+  const auto head_words = split_words(lines[start].text);
+  const Nasa9Record rec{lines, start, std::string(head_words.front()), origin};
+  const Line& second = rec.at(1, "line 2 (number of intervals, formula, molecular weight)");
+  const double count_value = rec.number(second, 1, 2, "the number of temperature intervals");
+  if (count_value < 0 || count_value > 20 || count_value != std::floor(count_value)) {
+    fail(origin, second.number,
+         fmt::format("{}: columns 1-2 should hold the number of temperature intervals, found '{}'", rec.name,
+                     columns(second.text, 1, 2)));
+  }
+  const auto count = static_cast<std::size_t>(count_value);
+  const std::string_view phase_field = trim(columns(second.text, 51, 52));
+  const double phase = phase_field.empty() ? 0.0 : rec.number(second, 51, 52, "the phase (0 for a gas)");
+  const double molecular_weight = rec.number(second, 53, 65, "the molecular weight in g/mol");
+  if (count == 0) return 3;                // a reactant with an assigned enthalpy only: name, line 2, one T line
+  if (phase != 0) return 2 + 3 * count;  // a condensed phase: not an ideal gas, skipped
+  NasaSpecies sp;
+  sp.name = rec.name;
+  std::vector<int> interval_lines;
+  for (std::size_t k = 0; k < count; ++k) {
+    sp.intervals.push_back(read_nasa9_interval(rec, k, count));
+    interval_lines.push_back(lines[start + 2 + 3 * k].number);
+  }
+  sp.molar_mass = molecular_weight / 1000.0;
+  const std::string_view after_name = trim(trim(lines[start].text).substr(head_words.front().size()));
+  sp.source = fmt::format("{} line {} (NASA 9-coefficient record, code {}): {}", origin, lines[start].number,
+                          trim(columns(second.text, 4, 9)), after_name);
+  builder.add(std::move(sp), lines[start].number, interval_lines);
+  return 2 + 3 * count;
+}
+
+}  // namespace
+
 SpeciesLibrary SpeciesLibrary::parse_nasa9(std::string_view text, const std::string& origin) {
   const std::vector<Line> lines = split_lines(text);
   Builder builder(origin);
@@ -370,112 +486,12 @@ SpeciesLibrary SpeciesLibrary::parse_nasa9(std::string_view text, const std::str
     }
     const std::string word = first_word_upper(lines[i].text);
     if (word == "THERMO") {
-      // The line after 'thermo' holds the global temperature ranges (and a date).
-      const int thermo_line = lines[i].number;
+      skip_thermo_ranges(lines, i, origin);
+    } else if (word.rfind("END", 0) == 0) {  // END PRODUCTS, END REACTANTS
       ++i;
-      while (i < lines.size() && is_comment_line(lines[i].text)) ++i;
-      const auto words = i < lines.size() ? split_words(lines[i].text) : std::vector<std::string_view>{};
-      if (words.empty() || !parse_number(words[0])) {
-        fail(origin, i < lines.size() ? lines[i].number : thermo_line,
-             "'thermo' must be followed by the line of global temperature ranges, e.g. '200.00 "
-             "1000.00 6000.00 20000.'");
-      }
-      ++i;
-      continue;
+    } else {
+      i = std::min(lines.size(), i + parse_nasa9_record(lines, i, builder, origin));
     }
-    if (word.rfind("END", 0) == 0) {  // END PRODUCTS, END REACTANTS
-      ++i;
-      continue;
-    }
-
-    // A species record.
-    const std::size_t start = i;
-    const int record_line = lines[start].number;
-    const auto head_words = split_words(lines[start].text);
-    NasaSpecies sp;
-    sp.name = std::string(head_words.front());
-    const std::string_view after_name =
-        trim(trim(lines[start].text).substr(head_words.front().size()));
-    // The next line of this record, or an error saying what is missing.
-    auto record_line_at = [&](std::size_t offset, const std::string& what) -> const Line& {
-      if (start + offset >= lines.size()) {
-        fail(origin, lines.back().number,
-             fmt::format("{}: the record that begins on line {} ends early: {} is missing", sp.name,
-                         record_line, what));
-      }
-      return lines[start + offset];
-    };
-    auto number_at = [&](const Line& line, std::size_t first, std::size_t last, const std::string& what) {
-      return number_in_columns(line, first, last, what, sp.name, origin);
-    };
-
-    const Line& second = record_line_at(1, "line 2 (number of intervals, formula, molecular weight)");
-    const double count_value = number_at(second, 1, 2, "the number of temperature intervals");
-    if (count_value < 0 || count_value > 20 || count_value != std::floor(count_value)) {
-      fail(origin, second.number,
-           fmt::format("{}: columns 1-2 should hold the number of temperature intervals, found '{}'",
-                       sp.name, columns(second.text, 1, 2)));
-    }
-    const auto count = static_cast<std::size_t>(count_value);
-    const std::string code(trim(columns(second.text, 4, 9)));
-    const std::string_view phase_field = trim(columns(second.text, 51, 52));
-    const double phase = phase_field.empty() ? 0.0 : number_at(second, 51, 52, "the phase (0 for a gas)");
-    const double molecular_weight = number_at(second, 53, 65, "the molecular weight in g/mol");
-
-    if (count == 0) {  // a reactant with an assigned enthalpy only: name, line 2, one T line
-      i = std::min(lines.size(), start + 3);
-      continue;
-    }
-    if (phase != 0) {  // a condensed phase: not an ideal gas, skipped
-      i = std::min(lines.size(), start + 2 + 3 * count);
-      continue;
-    }
-
-    std::vector<int> interval_lines;
-    for (std::size_t k = 0; k < count; ++k) {
-      const std::string which = fmt::format("interval {} of {}", k + 1, count);
-      const Line& t_line = record_line_at(2 + 3 * k, fmt::format("the temperature line of {}", which));
-      const Line& c_line = record_line_at(3 + 3 * k, fmt::format("the first coefficient line of {}", which));
-      const Line& d_line = record_line_at(4 + 3 * k, fmt::format("the second coefficient line of {}", which));
-      NasaInterval in;
-      in.t_low = number_at(t_line, 1, 11, fmt::format("the lower temperature of {}", which));
-      in.t_high = number_at(t_line, 12, 22, fmt::format("the upper temperature of {}", which));
-      if (number_at(t_line, 23, 23, "the number of coefficients (7)") != 7) {
-        fail(origin, t_line.number,
-             fmt::format("{}: column 23 should hold 7, the number of cp coefficients, found '{}'",
-                         sp.name, columns(t_line.text, 23, 23)));
-      }
-      static constexpr double kExponents[8] = {-2, -1, 0, 1, 2, 3, 4, 0};
-      for (std::size_t e = 0; e < 8; ++e) {
-        const std::size_t first = 24 + 5 * e;
-        if (number_at(t_line, first, first + 4, "a temperature exponent") != kExponents[e]) {
-          fail(origin, t_line.number,
-               fmt::format("{}: the temperature exponents in columns 24-63 must be -2 -1 0 1 2 3 4 "
-                           "0, found '{}'",
-                           sp.name, trim(columns(t_line.text, 24, 63))));
-        }
-      }
-      for (std::size_t j = 0; j < 5; ++j) {
-        in.a[j] = number_at(c_line, 1 + 16 * j, 16 + 16 * j,
-                            fmt::format("coefficient a{} of interval {}", j, k + 1));
-      }
-      in.a[5] = number_at(d_line, 1, 16, fmt::format("coefficient a5 of interval {}", k + 1));
-      in.a[6] = number_at(d_line, 17, 32, fmt::format("coefficient a6 of interval {}", k + 1));
-      if (!trim(columns(d_line.text, 33, 48)).empty() &&
-          number_at(d_line, 33, 48, "a blank or zero eighth coefficient") != 0) {
-        fail(origin, d_line.number,
-             fmt::format("{}: columns 33-48 (an eighth coefficient) must be blank or zero", sp.name));
-      }
-      in.b1 = number_at(d_line, 49, 64, fmt::format("the constant b1 of interval {}", k + 1));
-      in.b2 = number_at(d_line, 65, 80, fmt::format("the constant b2 of interval {}", k + 1));
-      sp.intervals.push_back(in);
-      interval_lines.push_back(t_line.number);
-    }
-    sp.molar_mass = molecular_weight / 1000.0;
-    sp.source = fmt::format("{} line {} (NASA 9-coefficient record, code {}): {}", origin, record_line,
-                            code, after_name);
-    builder.add(std::move(sp), record_line, interval_lines);
-    i = start + 2 + 3 * count;
   }
   return from_parts(std::move(builder.species), std::move(builder.aliases));
 }
