@@ -224,118 +224,145 @@ const std::map<std::string, double>& atomic_weights() {
 // =======================================================================================
 // The project's own format
 
-SpeciesLibrary SpeciesLibrary::parse_own_format(std::string_view text, const std::string& origin) {
-  Builder builder(origin);
-  struct Block {
-    NasaSpecies species;
-    int first_line = 0;
-    bool has_molar_mass = false;
-    std::vector<int> interval_lines;
-    std::vector<std::pair<std::string, int>> aliases;
-  };
-  std::optional<Block> block;
-  int last_line = 0;
+namespace {
+
+// One block of the own format, from 'species NAME' to 'end'.
+struct OwnBlock {
+  NasaSpecies species;
+  int first_line = 0;
+  bool has_molar_mass = false;
+  std::vector<int> interval_lines;
+  std::vector<std::pair<std::string, int>> aliases;
+};
+
+// A line of the own format: its keyword, the rest, and the rest's words.
+struct OwnLine {
+  int number = 0;
+  std::string_view keyword;
+  std::string_view rest;
+  std::vector<std::string_view> words;
+};
+
+void read_molar_mass(OwnBlock& block, const OwnLine& line, const std::string& origin) {
+  const auto& words = line.words;
+  const auto value = words.size() == 2 ? parse_number(words[0]) : std::nullopt;
+  const bool grams = words.size() == 2 && words[1] == "g/mol";
+  const bool kilograms = words.size() == 2 && words[1] == "kg/mol";
+  const std::string& name = block.species.name;
+  if (!value || !(grams || kilograms)) {
+    fail(origin, line.number,
+         fmt::format("{}: 'molar_mass' needs a number and a unit, g/mol or kg/mol; found '{}'", name, line.rest));
+  }
+  if (block.has_molar_mass) fail(origin, line.number, fmt::format("{}: a second molar_mass", name));
+  block.species.molar_mass = grams ? *value / 1000.0 : *value;
+  block.has_molar_mass = true;
+}
+
+void read_interval(OwnBlock& block, const OwnLine& line, const std::string& origin) {
   static constexpr const char* kFieldNames[] = {"T_low", "T_high", "a0", "a1", "a2", "a3",
                                                 "a4",    "a5",     "a6", "b1", "b2"};
+  const std::string& name = block.species.name;
+  if (line.words.size() != 11) {
+    fail(origin, line.number,
+         fmt::format("{}: an interval needs 11 numbers (T_low T_high a0 a1 a2 a3 a4 a5 a6 b1 b2), found {}", name,
+                     line.words.size()));
+  }
+  double values[11];
+  for (std::size_t k = 0; k < 11; ++k) {
+    const auto value = parse_number(line.words[k]);
+    if (!value) fail(origin, line.number, fmt::format("{}: {} '{}' is not a number", name, kFieldNames[k], line.words[k]));
+    values[k] = *value;
+  }
+  NasaInterval in;
+  in.t_low = values[0];
+  in.t_high = values[1];
+  std::copy(values + 2, values + 9, in.a.begin());
+  in.b1 = values[9];
+  in.b2 = values[10];
+  block.species.intervals.push_back(in);
+  block.interval_lines.push_back(line.number);
+}
 
-  for (const Line& line : split_lines(text)) {
-    last_line = line.number;
-    const std::string_view content = trim(line.text);
+// 'end': the block is complete; its species and aliases go to `builder`.
+void close_block(OwnBlock& block, const OwnLine& line, Builder& builder, const std::string& origin) {
+  NasaSpecies& sp = block.species;
+  if (!block.has_molar_mass) fail(origin, line.number, fmt::format("{}: the block has no molar_mass line", sp.name));
+  if (sp.source.empty()) {
+    fail(origin, line.number, fmt::format("{}: the block has no source line (say where the figures come from)", sp.name));
+  }
+  if (sp.intervals.empty()) fail(origin, line.number, fmt::format("{}: the block has no interval line", sp.name));
+  const std::string name = sp.name;
+  builder.add(std::move(sp), block.first_line, block.interval_lines);
+  for (const auto& [alias, alias_line] : block.aliases) builder.add_alias(alias, name, alias_line);
+}
+
+// A line inside a block (not 'species'). Returns true at 'end'.
+bool read_block_line(OwnBlock& block, const OwnLine& line, Builder& builder, const std::string& origin) {
+  NasaSpecies& sp = block.species;
+  if (line.keyword == "alias") {
+    if (line.words.size() != 1) fail(origin, line.number, fmt::format("{}: 'alias' needs one name, without spaces", sp.name));
+    block.aliases.emplace_back(std::string(line.words[0]), line.number);
+  } else if (line.keyword == "molar_mass") {
+    read_molar_mass(block, line, origin);
+  } else if (line.keyword == "source") {
+    if (line.rest.empty()) fail(origin, line.number, fmt::format("{}: 'source' needs a text", sp.name));
+    if (!sp.source.empty()) fail(origin, line.number, fmt::format("{}: a second source", sp.name));
+    sp.source = std::string(line.rest);
+  } else if (line.keyword == "interval") {
+    read_interval(block, line, origin);
+  } else if (line.keyword == "end") {
+    close_block(block, line, builder, origin);
+    return true;
+  } else {
+    fail(origin, line.number,
+         fmt::format("unknown keyword '{}' (expected species, alias, molar_mass, source, interval or end)",
+                     line.keyword));
+  }
+  return false;
+}
+
+OwnLine split_own_line(const Line& line, std::string_view content) {
+  OwnLine l;
+  l.number = line.number;
+  const std::size_t space = content.find_first_of(" \t");
+  l.keyword = content.substr(0, space);
+  l.rest = space == std::string_view::npos ? std::string_view() : trim(content.substr(space));
+  l.words = split_words(l.rest);
+  return l;
+}
+
+}  // namespace
+
+SpeciesLibrary SpeciesLibrary::parse_own_format(std::string_view text, const std::string& origin) {
+  Builder builder(origin);
+  std::optional<OwnBlock> block;
+  int last_line = 0;
+  for (const Line& raw : split_lines(text)) {
+    last_line = raw.number;
+    const std::string_view content = trim(raw.text);
     if (content.empty() || content.front() == '#') continue;
-    const std::size_t space = content.find_first_of(" \t");
-    const std::string_view keyword = content.substr(0, space);
-    const std::string_view rest =
-        space == std::string_view::npos ? std::string_view() : trim(content.substr(space));
-    const auto words = split_words(rest);
-
-    if (keyword == "species") {
+    const OwnLine line = split_own_line(raw, content);
+    if (line.keyword == "species") {
       if (block) {
         fail(origin, line.number,
-             fmt::format("'species {}' begins before the block of {} (line {}) is closed with 'end'",
-                         rest, block->species.name, block->first_line));
+             fmt::format("'species {}' begins before the block of {} (line {}) is closed with 'end'", line.rest,
+                         block->species.name, block->first_line));
       }
-      if (words.size() != 1) fail(origin, line.number, "'species' needs one name, without spaces");
+      if (line.words.size() != 1) fail(origin, line.number, "'species' needs one name, without spaces");
       block.emplace();
-      block->species.name = std::string(words[0]);
+      block->species.name = std::string(line.words[0]);
       block->first_line = line.number;
-      continue;
-    }
-    if (!block) {
+    } else if (!block) {
       fail(origin, line.number,
-           fmt::format("'{}' outside a species block (a block begins with 'species NAME')", keyword));
-    }
-    NasaSpecies& sp = block->species;
-    if (keyword == "alias") {
-      if (words.size() != 1) {
-        fail(origin, line.number, fmt::format("{}: 'alias' needs one name, without spaces", sp.name));
-      }
-      block->aliases.emplace_back(std::string(words[0]), line.number);
-    } else if (keyword == "molar_mass") {
-      const auto value = words.size() == 2 ? parse_number(words[0]) : std::nullopt;
-      const bool grams = words.size() == 2 && words[1] == "g/mol";
-      const bool kilograms = words.size() == 2 && words[1] == "kg/mol";
-      if (!value || !(grams || kilograms)) {
-        fail(origin, line.number,
-             fmt::format("{}: 'molar_mass' needs a number and a unit, g/mol or kg/mol; found '{}'",
-                         sp.name, rest));
-      }
-      if (block->has_molar_mass) fail(origin, line.number, fmt::format("{}: a second molar_mass", sp.name));
-      sp.molar_mass = grams ? *value / 1000.0 : *value;
-      block->has_molar_mass = true;
-    } else if (keyword == "source") {
-      if (rest.empty()) fail(origin, line.number, fmt::format("{}: 'source' needs a text", sp.name));
-      if (!sp.source.empty()) fail(origin, line.number, fmt::format("{}: a second source", sp.name));
-      sp.source = std::string(rest);
-    } else if (keyword == "interval") {
-      if (words.size() != 11) {
-        fail(origin, line.number,
-             fmt::format("{}: an interval needs 11 numbers (T_low T_high a0 a1 a2 a3 a4 a5 a6 b1 "
-                         "b2), found {}",
-                         sp.name, words.size()));
-      }
-      double values[11];
-      for (std::size_t k = 0; k < 11; ++k) {
-        const auto value = parse_number(words[k]);
-        if (!value) {
-          fail(origin, line.number,
-               fmt::format("{}: {} '{}' is not a number", sp.name, kFieldNames[k], words[k]));
-        }
-        values[k] = *value;
-      }
-      NasaInterval in;
-      in.t_low = values[0];
-      in.t_high = values[1];
-      std::copy(values + 2, values + 9, in.a.begin());
-      in.b1 = values[9];
-      in.b2 = values[10];
-      sp.intervals.push_back(in);
-      block->interval_lines.push_back(line.number);
-    } else if (keyword == "end") {
-      if (!block->has_molar_mass) {
-        fail(origin, line.number, fmt::format("{}: the block has no molar_mass line", sp.name));
-      }
-      if (sp.source.empty()) {
-        fail(origin, line.number,
-             fmt::format("{}: the block has no source line (say where the figures come from)", sp.name));
-      }
-      if (sp.intervals.empty()) {
-        fail(origin, line.number, fmt::format("{}: the block has no interval line", sp.name));
-      }
-      const std::string name = sp.name;
-      builder.add(std::move(sp), block->first_line, block->interval_lines);
-      for (const auto& [alias, alias_line] : block->aliases) builder.add_alias(alias, name, alias_line);
+           fmt::format("'{}' outside a species block (a block begins with 'species NAME')", line.keyword));
+    } else if (read_block_line(*block, line, builder, origin)) {
       block.reset();
-    } else {
-      fail(origin, line.number,
-           fmt::format("unknown keyword '{}' (expected species, alias, molar_mass, source, interval "
-                       "or end)",
-                       keyword));
     }
   }
   if (block) {
     fail(origin, last_line,
-         fmt::format("{}: the text ends inside the block that begins on line {} (no 'end')",
-                     block->species.name, block->first_line));
+         fmt::format("{}: the text ends inside the block that begins on line {} (no 'end')", block->species.name,
+                     block->first_line));
   }
   return from_parts(std::move(builder.species), std::move(builder.aliases));
 }
