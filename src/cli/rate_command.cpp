@@ -17,6 +17,7 @@
 
 #include "batch_command.hpp"
 #include "commands.hpp"
+#include "picture_options.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/atomic_file.hpp"
 #include "shaftwork/io/case_reader.hpp"
@@ -39,6 +40,7 @@ struct RateOptions {
   bool format_given = false;
   bool units_given = false;
   std::vector<std::string> columns;  // --columns: result keys of a batch's csv
+  PictureOptions pictures;           // --plot, --plot-diagram
 };
 
 
@@ -86,26 +88,30 @@ bool rate_files(const RateOptions& options, io::FluidFactory& fluids, io::Result
 int run_rate(const RateOptions& options) {
   io::FluidFactory fluids;
   std::optional<io::OutputFile> file;  // opened first: a path it refuses costs no rating
+  io::TableOptions table;
+  table.system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
+  table.system_forced = options.units_given;
+  table.show_origin = options.files.size() > 1;
+  std::vector<std::unique_ptr<io::ResultStream>> pictures;
   try {
     std::vector<std::string> inputs = options.files;
     inputs.insert(inputs.end(), options.species_files.begin(), options.species_files.end());
     if (!options.output.empty()) io::refuse_output_among_inputs(options.output, inputs);
+    for (const auto& path : options.pictures.outputs()) io::refuse_output_among_inputs(path, inputs);
     for (const auto& path : options.species_files) fluids.add_species_file(path);
+    pictures = picture_streams(options.pictures, table.system, table.system_forced);
     if (!options.output.empty()) file.emplace(options.output);
   } catch (const Error& e) {
     std::cerr << "error: " << e.what() << '\n';
     return kExitUnusable;
   }
-  io::TableOptions table;
-  table.system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
-  table.system_forced = options.units_given;
-  table.show_origin = options.files.size() > 1;
   bool file_unusable = false;
   io::SinkStream out(file ? static_cast<io::ByteSink&>(*file) : io::standard_output());
   const auto results = io::make_result_stream(result_format(options.format), out, table);
+  ResultTee tee(*results, std::move(pictures));
   bool case_failed = false;
   try {
-    case_failed = rate_files(options, fluids, *results, file_unusable);
+    case_failed = rate_files(options, fluids, tee, file_unusable);
     out.flush();
     if (file && file_unusable) {
       // Exit 2 leaves an existing output file as it was (the temporary file goes with `file`):
@@ -118,7 +124,7 @@ int run_rate(const RateOptions& options) {
     std::cerr << "error: " << e.what() << '\n';
     return kExitUnusable;
   }
-  if (file_unusable) return kExitUnusable;
+  if (file_unusable || tee.failed()) return kExitUnusable;
   return case_failed ? kExitCaseFailed : kExitOk;
 }
 
@@ -156,6 +162,10 @@ int run_rate_batch(const RateOptions& options) {
   if (options.format_given && options.format != "csv" && options.format != "jsonl") {
     std::cerr << fmt::format("error: --format {} is for JSON case files; a batch of test points writes csv or jsonl\n",
                              options.format);
+    return kExitUnusable;
+  }
+  if (options.pictures.any()) {
+    std::cerr << "error: --plot and --report draw the cases of JSON case files, not a batch of test points\n";
     return kExitUnusable;
   }
   BatchCommandOptions batch;
@@ -198,6 +208,7 @@ void install_rate(CLI::App& sub, int& exit_status) {
   sub.add_option("--jobs", options->jobs, "Threads for a batch (default: every core; at most 4 a core)")
       ->transform(kThreadCount);
   sub.add_flag("--quiet", options->quiet, "No progress line for a long batch");
+  add_picture_options(sub, options->pictures);
   sub.callback([options, format, units, &exit_status] {
     options->format_given = format->count() > 0;
     options->units_given = units->count() > 0;
