@@ -55,6 +55,7 @@ io::ResultFormat result_format(const std::string& name) {
   if (name == "json") return io::ResultFormat::json;
   if (name == "jsonl") return io::ResultFormat::jsonl;
   if (name == "csv") return io::ResultFormat::csv;
+  if (name == "xlsx") return io::ResultFormat::xlsx;
   return io::ResultFormat::table;
 }
 
@@ -86,6 +87,10 @@ bool rate_files(const RateOptions& options, io::FluidFactory& fluids, io::Result
 }
 
 int run_rate(const RateOptions& options) {
+  if (options.format == "xlsx" && options.output.empty()) {
+    std::cerr << "error: --format xlsx writes a workbook file: give it with -o FILE.xlsx\n";
+    return kExitUnusable;
+  }
   io::FluidFactory fluids;
   std::optional<io::OutputFile> file;  // opened first: a path it refuses costs no rating
   io::TableOptions table;
@@ -189,8 +194,8 @@ void install_rate(CLI::App& sub, int& exit_status) {
                  "JSON case files, or with --case one CSV file of test points; - reads standard input")
       ->required();
   auto* format = sub.add_option("--format", options->format,
-                                "Output format (jsonl: one result per line; a batch writes csv or jsonl)")
-                     ->check(CLI::IsMember({"table", "json", "csv", "jsonl"}))
+                                "Output format (jsonl: one result per line; xlsx: a workbook, with -o; a batch writes csv or jsonl)")
+                     ->check(CLI::IsMember({"table", "json", "csv", "jsonl", "xlsx"}))
                      ->capture_default_str();
   auto* units = sub.add_option("--units", options->units,
                                 "Units of table and csv output (json is always SI); a table otherwise shows each "
