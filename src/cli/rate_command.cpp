@@ -87,10 +87,6 @@ bool rate_files(const RateOptions& options, io::FluidFactory& fluids, io::Result
 }
 
 int run_rate(const RateOptions& options) {
-  if (options.format == "xlsx" && options.output.empty()) {
-    std::cerr << "error: --format xlsx writes a workbook file: give it with -o FILE.xlsx\n";
-    return kExitUnusable;
-  }
   io::FluidFactory fluids;
   std::optional<io::OutputFile> file;  // opened first: a path it refuses costs no rating
   io::TableOptions table;
@@ -164,9 +160,10 @@ int run_rate_batch(const RateOptions& options) {
                              options.files.size());
     return kExitUnusable;
   }
-  if (options.format_given && options.format != "csv" && options.format != "jsonl") {
-    std::cerr << fmt::format("error: --format {} is for JSON case files; a batch of test points writes csv or jsonl\n",
-                             options.format);
+  if (options.format_given && options.format != "csv" && options.format != "jsonl" && options.format != "xlsx") {
+    std::cerr << fmt::format(
+        "error: --format {} is for JSON case files; a batch of test points writes csv, jsonl or xlsx\n",
+        options.format);
     return kExitUnusable;
   }
   if (options.pictures.any()) {
@@ -194,7 +191,7 @@ void install_rate(CLI::App& sub, int& exit_status) {
                  "JSON case files, or with --case one CSV file of test points; - reads standard input")
       ->required();
   auto* format = sub.add_option("--format", options->format,
-                                "Output format (jsonl: one result per line; xlsx: a workbook, with -o; a batch writes csv or jsonl)")
+                                "Output format (jsonl: one result per line; xlsx: a workbook, with -o; a batch writes csv, jsonl or xlsx)")
                      ->check(CLI::IsMember({"table", "json", "csv", "jsonl", "xlsx"}))
                      ->capture_default_str();
   auto* units = sub.add_option("--units", options->units,
@@ -220,6 +217,11 @@ void install_rate(CLI::App& sub, int& exit_status) {
     const bool batch = !options->template_file.empty() ||
                        std::any_of(options->files.begin(), options->files.end(),
                                    [](const std::string& f) { return ends_with(f, ".csv") || ends_with(f, ".CSV"); });
+    if (options->format == "xlsx" && options->output.empty()) {
+      std::cerr << "error: --format xlsx writes a workbook file: give it with -o FILE.xlsx\n";
+      exit_status = kExitUnusable;
+      return;
+    }
     exit_status = batch ? run_rate_batch(*options) : run_rate(*options);
   });
 }

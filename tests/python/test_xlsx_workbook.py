@@ -8,7 +8,9 @@ and the hour (BIPM SI Brochure, 9th ed.), and degC = K - 273.15 by definition.
 Run by ctest as: /usr/bin/python3 tests/python/test_xlsx_workbook.py <shaftwork binary>
 It fails, not skips, when python3-openpyxl is missing.
 """
+import csv
 import glob
+import io
 import json
 import os
 import subprocess
@@ -85,6 +87,33 @@ with tempfile.TemporaryDirectory() as tmp:
             checked += 1
             if abs(cell - expected) > 1e-12 * max(1.0, abs(expected)):
                 failures.append(f"{cells['id']}: {key} {cell} [{unit}] against JSON {node} (SI) = {expected}")
+
+    # A batch: the workbook holds the batch's CSV cell for cell, numbers as numbers.
+    batch = ["examples/compressor-week-log.csv", "--case", "examples/compressor-week-log.template.json", "--quiet"]
+    book = os.path.join(tmp, "batch.xlsx")
+    subprocess.run([binary, "rate", *batch, "--format", "xlsx", "-o", book], stderr=subprocess.DEVNULL)
+    text = subprocess.run([binary, "rate", *batch], capture_output=True, text=True).stdout
+    records = list(csv.reader(io.StringIO(text)))
+    rows = list(openpyxl.load_workbook(book, read_only=True)["results"].iter_rows(values_only=True))
+    header = [h.rsplit(" [", 1) for h in records[0]]
+    if [h[0] for h in header] != list(rows[0]):
+        failures.append(f"batch keys {rows[0]} against the csv header {records[0]}")
+    if [h[1][:-1] if len(h) == 2 else None for h in header] != [u or None for u in rows[1]]:
+        failures.append(f"batch units {rows[1]}")
+    if len(rows) - 2 != len(records) - 1:
+        failures.append(f"batch: {len(rows) - 2} rows in the workbook, {len(records) - 1} in the csv")
+    numbers = 0
+    for record, row in zip(records[1:], rows[2:]):
+        for key, value, cell in zip(rows[0], record, row):
+            if isinstance(cell, (int, float)):
+                numbers += 1
+                checked += 1
+                if float(value) != cell:
+                    failures.append(f"batch {key}: {cell} against the csv's {value}")
+            elif (cell or "") != value:
+                failures.append(f"batch {key}: {cell!r} against the csv's {value!r}")
+    if numbers < 10 * (len(records) - 1):
+        failures.append(f"batch: only {numbers} numbers in {len(records) - 1} rows")
 
     # Without -o: refused.
     run = subprocess.run([binary, "rate", "examples/plant-air-compressor.json", "--format", "xlsx"],
