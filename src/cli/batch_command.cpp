@@ -57,7 +57,9 @@ int run_batch(const BatchCommandOptions& options) {
     const io::BatchTemplate templ = io::read_batch_template(document, options.template_file, fluids);
 
     io::BatchOptions batch;
-    batch.format = options.format == "jsonl" ? io::BatchFormat::jsonl : io::BatchFormat::csv;
+    batch.format = options.format == "jsonl"  ? io::BatchFormat::jsonl
+                   : options.format == "xlsx" ? io::BatchFormat::xlsx
+                                              : io::BatchFormat::csv;
     batch.units = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
     batch.jobs = thread_count(options.jobs);
     batch.columns = options.columns;

@@ -9,7 +9,7 @@ namespace shaftwork::cli {
 struct BatchCommandOptions {
   std::string points;         // the CSV file, or "-" for standard input
   std::string template_file;  // the case file holding the template case
-  std::string format;         // "csv" or "jsonl"
+  std::string format;         // "csv", "jsonl" or "xlsx"
   std::string units;          // "si" or "us"
   std::string output;         // -o FILE, or "" for standard output
   unsigned jobs = 0;          // 0: every core

@@ -16,6 +16,7 @@
 #include <fmt/format.h>
 
 #include "commands.hpp"
+#include "picture_options.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/atomic_file.hpp"
 #include "shaftwork/io/baseline.hpp"
@@ -39,6 +40,7 @@ struct CheckOptions {
   double rtol = 1e-6;
   std::vector<std::string> ignore;
   std::vector<std::string> species_files;
+  PictureOptions pictures;  // --plot, --plot-diagram
 };
 
 // A file to check: as named (for reading and messages), and whether a directory search
@@ -56,6 +58,13 @@ struct CheckRun {
   bool keep_outcomes = false;             // --record: the results are written at the end
   std::vector<io::CaseOutcome> outcomes;  // kept only then
   io::CaseIdRegister ids;
+  std::unique_ptr<ResultTee> pictures;  // --plot: draws every rated case (its results stream is a no-op)
+};
+
+// The results of check go to its own outputs; a picture stream gets them through this.
+class NoResults final : public io::ResultStream {
+ public:
+  void add(const io::CaseOutcome&) override {}
 };
 
 bool is_json_name(const fs::path& p) {
@@ -126,6 +135,7 @@ void check_file(const CaseFile& file, CheckRun& run) {
       run.ids.check(outcomes[i], i);
       run.checks.push_back(io::check_case(outcomes[i], *cases[i], run.baseline ? &*run.baseline : nullptr, run.compare));
       io::write_check_lines(lines, run.checks.back());
+      if (run.pictures) run.pictures->add(outcomes[i]);
       if (run.keep_outcomes) run.outcomes.push_back(std::move(outcomes[i]));
     }
   } catch (const Error& e) {
@@ -163,6 +173,10 @@ bool prepare(const CheckOptions& options, CheckRun& run) {
     for (const auto& path : options.species_files) run.fluids.add_species_file(path);
     if (!options.baseline.empty()) {
       run.baseline.emplace(io::read_text_file(options.baseline), options.baseline);
+    }
+    if (options.pictures.any()) {
+      static NoResults no_results;
+      run.pictures = std::make_unique<ResultTee>(no_results, picture_streams(options.pictures, io::UnitSystem::si, false));
     }
   } catch (const Error& e) {
     std::cerr << "error: " << e.what() << '\n';
@@ -206,7 +220,9 @@ bool write_outputs(const CheckOptions& options, const CheckRun& run, int status)
 
 // Whether --record or --junit names one of the case files, which it would replace.
 bool output_among_inputs(const CheckOptions& options, const std::vector<CaseFile>& files) {
-  for (const std::string& output : {options.record, options.junit}) {
+  std::vector<std::string> outputs = options.pictures.outputs();
+  outputs.insert(outputs.end(), {options.record, options.junit});
+  for (const std::string& output : outputs) {
     for (const CaseFile& f : files) {
       std::error_code ec;
       if (output.empty() || f.path == "-" || !fs::equivalent(output, f.path, ec)) continue;
@@ -234,7 +250,8 @@ int run_check(const CheckOptions& options) {
     std::cout << lines.str();
   }
   std::cout << io::summary_line(run.checks) << '\n' << std::flush;
-  const int status = exit_status_of(run.checks);
+  if (run.pictures) run.pictures->finish();
+  const int status = run.pictures && run.pictures->failed() ? kExitUnusable : exit_status_of(run.checks);
   if (!write_outputs(options, run, status)) return kExitUnusable;
   return status;
 }
@@ -258,6 +275,7 @@ void install_check(CLI::App& sub, int& exit_status) {
   sub.add_option("--junit", options->junit, "Also write the checks as JUnit XML to this file (whole or not at all)");
   sub.add_option("--species-file", options->species_files,
                  "Extra species in the NASA 9-coefficient format (may be repeated)");
+  add_picture_options(sub, options->pictures);
   sub.callback([options, &exit_status] { exit_status = run_check(*options); });
 }
 

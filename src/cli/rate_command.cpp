@@ -17,6 +17,7 @@
 
 #include "batch_command.hpp"
 #include "commands.hpp"
+#include "picture_options.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/uncertainty_input.hpp"
 #include "shaftwork/io/atomic_file.hpp"
@@ -40,6 +41,7 @@ struct RateOptions {
   bool format_given = false;
   bool units_given = false;
   std::vector<std::string> columns;  // --columns: result keys of a batch's csv
+  PictureOptions pictures;           // --plot, --plot-diagram
 };
 
 
@@ -54,6 +56,7 @@ io::ResultFormat result_format(const std::string& name) {
   if (name == "json") return io::ResultFormat::json;
   if (name == "jsonl") return io::ResultFormat::jsonl;
   if (name == "csv") return io::ResultFormat::csv;
+  if (name == "xlsx") return io::ResultFormat::xlsx;
   return io::ResultFormat::table;
 }
 
@@ -113,28 +116,32 @@ bool rate_files(const RateOptions& options, io::FluidFactory& fluids, io::Result
 int run_rate(const RateOptions& options) {
   io::FluidFactory fluids;
   std::optional<io::OutputFile> file;  // opened first: a path it refuses costs no rating
+  io::TableOptions table;
+  table.system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
+  table.system_forced = options.units_given;
+  table.show_origin = options.files.size() > 1;
+  std::vector<std::unique_ptr<io::ResultStream>> pictures;
   try {
     std::vector<std::string> inputs = options.files;
     inputs.insert(inputs.end(), options.species_files.begin(), options.species_files.end());
     if (!options.output.empty()) io::refuse_output_among_inputs(options.output, inputs);
+    for (const auto& path : options.pictures.outputs()) io::refuse_output_among_inputs(path, inputs);
     for (const auto& path : options.species_files) fluids.add_species_file(path);
+    pictures = picture_streams(options.pictures, table.system, table.system_forced);
     if (!options.output.empty()) file.emplace(options.output);
   } catch (const Error& e) {
     std::cerr << "error: " << e.what() << '\n';
     return kExitUnusable;
   }
-  io::TableOptions table;
-  table.system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
-  table.system_forced = options.units_given;
-  table.show_origin = options.files.size() > 1;
   InputTexts texts;
   if (options.format == "csv") table.uncertainty_columns = files_state_uncertainty(options.files, texts);
   bool file_unusable = false;
   io::SinkStream out(file ? static_cast<io::ByteSink&>(*file) : io::standard_output());
   const auto results = io::make_result_stream(result_format(options.format), out, table);
+  ResultTee tee(*results, std::move(pictures));
   bool case_failed = false;
   try {
-    case_failed = rate_files(options, fluids, *results, texts, file_unusable);
+    case_failed = rate_files(options, fluids, tee, texts, file_unusable);
     out.flush();
     if (file && file_unusable) {
       // Exit 2 leaves an existing output file as it was (the temporary file goes with `file`):
@@ -147,7 +154,7 @@ int run_rate(const RateOptions& options) {
     std::cerr << "error: " << e.what() << '\n';
     return kExitUnusable;
   }
-  if (file_unusable) return kExitUnusable;
+  if (file_unusable || tee.failed()) return kExitUnusable;
   return case_failed ? kExitCaseFailed : kExitOk;
 }
 
@@ -182,9 +189,14 @@ int run_rate_batch(const RateOptions& options) {
                              options.files.size());
     return kExitUnusable;
   }
-  if (options.format_given && options.format != "csv" && options.format != "jsonl") {
-    std::cerr << fmt::format("error: --format {} is for JSON case files; a batch of test points writes csv or jsonl\n",
-                             options.format);
+  if (options.format_given && options.format != "csv" && options.format != "jsonl" && options.format != "xlsx") {
+    std::cerr << fmt::format(
+        "error: --format {} is for JSON case files; a batch of test points writes csv, jsonl or xlsx\n",
+        options.format);
+    return kExitUnusable;
+  }
+  if (options.pictures.any()) {
+    std::cerr << "error: --plot and --report draw the cases of JSON case files, not a batch of test points\n";
     return kExitUnusable;
   }
   BatchCommandOptions batch;
@@ -208,8 +220,8 @@ void install_rate(CLI::App& sub, int& exit_status) {
                  "JSON case files, or with --case one CSV file of test points; - reads standard input")
       ->required();
   auto* format = sub.add_option("--format", options->format,
-                                "Output format (jsonl: one result per line; a batch writes csv or jsonl)")
-                     ->check(CLI::IsMember({"table", "json", "csv", "jsonl"}))
+                                "Output format (jsonl: one result per line; xlsx: a workbook, with -o; a batch writes csv, jsonl or xlsx)")
+                     ->check(CLI::IsMember({"table", "json", "csv", "jsonl", "xlsx"}))
                      ->capture_default_str();
   auto* units = sub.add_option("--units", options->units,
                                 "Units of table and csv output (json is always SI); a table otherwise shows each "
@@ -227,12 +239,18 @@ void install_rate(CLI::App& sub, int& exit_status) {
   sub.add_option("--jobs", options->jobs, "Threads for a batch (default: every core; at most 4 a core)")
       ->transform(kThreadCount);
   sub.add_flag("--quiet", options->quiet, "No progress line for a long batch");
+  add_picture_options(sub, options->pictures);
   sub.callback([options, format, units, &exit_status] {
     options->format_given = format->count() > 0;
     options->units_given = units->count() > 0;
     const bool batch = !options->template_file.empty() ||
                        std::any_of(options->files.begin(), options->files.end(),
                                    [](const std::string& f) { return ends_with(f, ".csv") || ends_with(f, ".CSV"); });
+    if (options->format == "xlsx" && options->output.empty()) {
+      std::cerr << "error: --format xlsx writes a workbook file: give it with -o FILE.xlsx\n";
+      exit_status = kExitUnusable;
+      return;
+    }
     exit_status = batch ? run_rate_batch(*options) : run_rate(*options);
   });
 }

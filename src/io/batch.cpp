@@ -14,6 +14,7 @@
 #include "batch_rows.hpp"
 #include "shaftwork/io/case_runner.hpp"
 #include "shaftwork/io/uncertainty_input.hpp"
+#include "workbook.hpp"
 #include "shaftwork/error.hpp"
 #include "worker_pool.hpp"
 
@@ -187,6 +188,15 @@ class Pipeline {
 
 BatchSummary rate_batch(ByteSource& points, const std::string& points_name, const BatchTemplate& templ,
                         ByteSink& out, const BatchOptions& options, BatchProgress* progress, BatchNotices* notices) {
+  if (options.format == BatchFormat::xlsx) {
+    // The csv's rows, turned into cells as they come.
+    BatchOptions csv = options;
+    csv.format = BatchFormat::csv;
+    CsvWorkbookSink book;
+    const BatchSummary summary = rate_batch(points, points_name, templ, book, csv, progress, notices);
+    book.finish(out);
+    return summary;
+  }
   CsvChunker chunker(points, points_name, ChunkSizer(options.chunk_bytes).next());
   auto first = std::make_unique<Job>();
   if (!chunker.next(first->chunk)) refuse(fmt::format("{}: the input is empty: expected a header row", points_name));

@@ -77,6 +77,7 @@ std::unique_ptr<ResultStream> make_result_stream(ResultFormat format, std::ostre
     case ResultFormat::json: return std::make_unique<JsonStream>(out);
     case ResultFormat::jsonl: return std::make_unique<JsonLinesStream>(out);
     case ResultFormat::csv: return std::make_unique<CsvStream>(out, options.system, options.uncertainty_columns);
+    case ResultFormat::xlsx: return make_workbook_stream(out, options.system);
     case ResultFormat::table: break;
   }
   return std::make_unique<TableStream>(out, options);

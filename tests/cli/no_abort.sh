@@ -59,6 +59,12 @@ done
 if ( (ulimit -v 400000 && exec "$bin" --version) ) >/dev/null 2>&1; then  # the outer shell reports an abort, silenced
   fewer=0
   for kb in 400000 200000 120000 80000 60000 50000 40000 30000 20000 15000; do
+    # Below some limit the dynamic loader cannot map the shared libraries (Cairo's fonts
+    # and image libraries among them) and the program never starts: nothing of ours to check.
+    if ! ( (ulimit -v "$kb" && exec "$bin" --version) ) >/dev/null 2>&1; then
+      echo "ulimit -v $kb: the program cannot load its shared libraries under this limit; skipped"
+      continue
+    fi
     (ulimit -s 8192 -v "$kb" && exec "$bin" rate "$log" --case "$template" --jobs 8 -o "$tmp/limited.csv") \
       >/dev/null 2>"$tmp/limited.err"
     status=$?

@@ -26,6 +26,7 @@ namespace shaftwork::io {
 enum class BatchFormat {
   csv,    // the input columns, then status, error, solved_for, result columns, warnings
   jsonl,  // one result object per line, as result_json writes it
+  xlsx,   // the csv's rows as a workbook: a row of keys, a row of units, numbers as numbers
 };
 
 struct BatchOptions {

@@ -2,6 +2,7 @@
 // for a person, and CSV for spreadsheets. Every writer takes its keys from result_keys().
 #pragma once
 
+#include <cstddef>
 #include <memory>
 #include <optional>
 #include <ostream>
@@ -65,8 +66,19 @@ class ResultStream {
   // Closes the document (JSON's brackets); nothing may be added after.
   virtual void finish() {}
 };
-enum class ResultFormat { table, json, jsonl, csv };
+enum class ResultFormat { table, json, jsonl, csv, xlsx };
 std::unique_ptr<ResultStream> make_result_stream(ResultFormat format, std::ostream& out, const TableOptions& options);
+
+// Excel's limit of rows in a worksheet (Microsoft, "Excel specifications and limits").
+inline constexpr std::size_t kWorkbookRowLimit = 1048576;
+// The workbook (ResultFormat::xlsx, through libxlsxwriter): one worksheet "results", a row of
+// the CSV's column keys, a row of their units (the system's, as the CSV's), then a row per
+// case with its numbers as numbers; a failed case has its status "error" and the message.
+// Rows go to a temporary file as they come (flat memory); finish() writes the zipped
+// workbook to `out`. A case beyond `row_limit` rows throws bad_input "the workbook would
+// pass Excel's limit of 1048576 rows: ..."; nothing is written to `out` then.
+std::unique_ptr<ResultStream> make_workbook_stream(std::ostream& out, UnitSystem system,
+                                                   std::size_t row_limit = kWorkbookRowLimit);
 
 // The whole document of `outcomes` in one format (tests, small outputs).
 void write_results(std::ostream& out, ResultFormat format, const std::vector<CaseOutcome>& outcomes,

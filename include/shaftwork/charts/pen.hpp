@@ -1,0 +1,32 @@
+// shaftwork/charts/pen.hpp — the few drawing acts every chart is made of: lines, marks
+// and text, on a cairo_t in points. Text is set in DejaVu Sans (Debian's fonts-dejavu-core).
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include <cairo.h>
+
+#include "shaftwork/charts/palette.hpp"
+
+namespace shaftwork::charts {
+
+struct Point {
+  double x = 0, y = 0;
+};
+
+enum class Dash { solid, dashed, dotted };
+enum class Align { left, centre, right };
+
+void set_colour(cairo_t* cr, Colour c);
+// A line through `points` (page coordinates), `width` points wide.
+void stroke_line(cairo_t* cr, const std::vector<Point>& points, Colour c, double width, Dash dash = Dash::solid);
+// A mark centred on `at`, `size` points across.
+void draw_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size = 9);
+// Text with its baseline at `at.y`; returns its width in points.
+double draw_text(cairo_t* cr, Point at, const std::string& text, double size, Align align = Align::left,
+                 bool bold = false, Colour c = kInk);
+// The same turned a quarter to the left (an axis title), centred on `at`.
+void draw_vertical_text(cairo_t* cr, Point at, const std::string& text, double size);
+
+}  // namespace shaftwork::charts

@@ -1,0 +1,73 @@
+#include "shaftwork/charts/axes.hpp"
+
+#include <cmath>
+
+#include <fmt/format.h>
+
+namespace shaftwork::charts {
+
+std::vector<Point> Axes::page(const std::vector<Point>& data) const {
+  std::vector<Point> out;
+  out.reserve(data.size());
+  for (const Point& p : data) out.push_back(page(p));
+  return out;
+}
+
+std::vector<double> nice_ticks(double low, double high, int target) {
+  std::vector<double> ticks;
+  const double span = high - low;
+  if (!(span > 0) || !std::isfinite(span) || target < 1) return ticks;
+  const double rough = span / target;
+  const double power = std::pow(10.0, std::floor(std::log10(rough)));
+  double step = power;
+  for (const double f : {1.0, 2.0, 5.0, 10.0}) {
+    step = f * power;
+    if (step >= rough) break;
+  }
+  for (double k = std::ceil(low / step); k * step <= high + 1e-9 * span; k += 1) ticks.push_back(k * step + 0.0);
+  return ticks;
+}
+
+void pad_range(double& low, double& high, double margin) {
+  double span = high - low;
+  if (!(span > 0)) span = std::max(std::abs(high), 1.0) * 0.02;
+  low -= margin * span;
+  high += margin * span;
+}
+
+namespace {
+
+// A tick's text: as few digits as its neighbours need.
+std::string tick_text(double value, const std::vector<double>& ticks) {
+  const double step = ticks.size() > 1 ? ticks[1] - ticks[0] : std::abs(value);
+  const int decimals = step > 0 ? std::max(0, static_cast<int>(-std::floor(std::log10(step) + 1e-9))) : 0;
+  return fmt::format("{:.{}f}", value + 0.0, decimals);
+}
+
+}  // namespace
+
+void clip_to(cairo_t* cr, const Rect& area) {
+  cairo_save(cr);
+  cairo_rectangle(cr, area.x, area.y, area.width, area.height);
+  cairo_clip(cr);
+}
+
+void draw_axes(cairo_t* cr, const Axes& axes, const std::string& x_title, const std::string& y_title) {
+  const Rect& a = axes.area;
+  const std::vector<double> xs = nice_ticks(axes.x_low, axes.x_high, 6);
+  const std::vector<double> ys = nice_ticks(axes.y_low, axes.y_high, 6);
+  for (const double x : xs) {
+    stroke_line(cr, {{axes.page_x(x), a.y}, {axes.page_x(x), a.y + a.height}}, kGrid, 0.6);
+    draw_text(cr, {axes.page_x(x), a.y + a.height + 13}, tick_text(x, xs), 8.5, Align::centre);
+  }
+  for (const double y : ys) {
+    stroke_line(cr, {{a.x, axes.page_y(y)}, {a.x + a.width, axes.page_y(y)}}, kGrid, 0.6);
+    draw_text(cr, {a.x - 5, axes.page_y(y) + 3}, tick_text(y, ys), 8.5, Align::right);
+  }
+  stroke_line(cr, {{a.x, a.y}, {a.x + a.width, a.y}, {a.x + a.width, a.y + a.height}, {a.x, a.y + a.height}, {a.x, a.y}},
+              kInk, 0.8);
+  draw_text(cr, {a.x + a.width / 2, a.y + a.height + 30}, x_title, 10, Align::centre);
+  draw_vertical_text(cr, {a.x - 52, a.y + a.height / 2}, y_title, 10);
+}
+
+}  // namespace shaftwork::charts

@@ -1,0 +1,82 @@
+#include "shaftwork/charts/pen.hpp"
+
+#include <cmath>
+
+namespace shaftwork::charts {
+
+void set_colour(cairo_t* cr, Colour c) { cairo_set_source_rgb(cr, c.r / 255.0, c.g / 255.0, c.b / 255.0); }
+
+void stroke_line(cairo_t* cr, const std::vector<Point>& points, Colour c, double width, Dash dash) {
+  if (points.size() < 2) return;
+  cairo_save(cr);
+  set_colour(cr, c);
+  cairo_set_line_width(cr, width);
+  cairo_set_line_join(cr, CAIRO_LINE_JOIN_ROUND);
+  const double dashed[] = {6 * width / 1.5 + 2, 3 * width / 1.5 + 1.5};
+  const double dotted[] = {0.1, 2.2 * width + 1};
+  if (dash == Dash::dashed) cairo_set_dash(cr, dashed, 2, 0);
+  if (dash == Dash::dotted) {
+    cairo_set_line_cap(cr, CAIRO_LINE_CAP_ROUND);
+    cairo_set_dash(cr, dotted, 2, 0);
+  }
+  cairo_move_to(cr, points[0].x, points[0].y);
+  for (std::size_t i = 1; i < points.size(); ++i) cairo_line_to(cr, points[i].x, points[i].y);
+  cairo_stroke(cr);
+  cairo_restore(cr);
+}
+
+void draw_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size) {
+  const double r = size / 2;
+  cairo_save(cr);
+  cairo_new_path(cr);
+  switch (mark) {
+    case Mark::circle: cairo_arc(cr, at.x, at.y, r, 0, 2 * M_PI); break;
+    case Mark::square: cairo_rectangle(cr, at.x - 0.85 * r, at.y - 0.85 * r, 1.7 * r, 1.7 * r); break;
+    case Mark::diamond:
+      cairo_move_to(cr, at.x, at.y - 1.2 * r);
+      cairo_line_to(cr, at.x + 1.2 * r, at.y);
+      cairo_line_to(cr, at.x, at.y + 1.2 * r);
+      cairo_line_to(cr, at.x - 1.2 * r, at.y);
+      cairo_close_path(cr);
+      break;
+    case Mark::triangle:
+      cairo_move_to(cr, at.x, at.y - 1.15 * r);
+      cairo_line_to(cr, at.x + r, at.y + 0.7 * r);
+      cairo_line_to(cr, at.x - r, at.y + 0.7 * r);
+      cairo_close_path(cr);
+      break;
+  }
+  set_colour(cr, c);
+  cairo_fill_preserve(cr);
+  cairo_set_source_rgb(cr, 1, 1, 1);
+  cairo_set_line_width(cr, 1.2);
+  cairo_stroke(cr);
+  cairo_restore(cr);
+}
+
+double draw_text(cairo_t* cr, Point at, const std::string& text, double size, Align align, bool bold, Colour c) {
+  cairo_save(cr);
+  cairo_select_font_face(cr, "DejaVu Sans", CAIRO_FONT_SLANT_NORMAL,
+                         bold ? CAIRO_FONT_WEIGHT_BOLD : CAIRO_FONT_WEIGHT_NORMAL);
+  cairo_set_font_size(cr, size);
+  cairo_text_extents_t extents;
+  cairo_text_extents(cr, text.c_str(), &extents);
+  double x = at.x;
+  if (align == Align::centre) x -= extents.x_advance / 2;
+  if (align == Align::right) x -= extents.x_advance;
+  set_colour(cr, c);
+  cairo_move_to(cr, x, at.y);
+  cairo_show_text(cr, text.c_str());
+  cairo_restore(cr);
+  return extents.x_advance;
+}
+
+void draw_vertical_text(cairo_t* cr, Point at, const std::string& text, double size) {
+  cairo_save(cr);
+  cairo_translate(cr, at.x, at.y);
+  cairo_rotate(cr, -M_PI / 2);
+  draw_text(cr, {0, 0}, text, size, Align::centre);
+  cairo_restore(cr);
+}
+
+}  // namespace shaftwork::charts

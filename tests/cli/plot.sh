@@ -1,0 +1,85 @@
+#!/usr/bin/env bash
+# rate --plot and check --plot end to end: files named as the contract says, results
+# unchanged, every picture a real SVG, PNG or PDF of the right size with its text, and
+# the messages for unusable names. (tests/charts/ checks where the marks fall.)
+# Run by ctest from the repository root as: bash tests/cli/plot.sh <shaftwork binary>
+source "$(dirname "$0")/checks.bash"
+
+# One case: FILE itself. Results on standard output unchanged by --plot.
+/usr/bin/python3 - examples/plant-air-compressor.json "$tmp/one.json" <<'PY'
+import json, sys
+doc = json.load(open(sys.argv[1]))
+json.dump(doc["cases"][0] if "cases" in doc else doc, open(sys.argv[2], "w"))
+PY
+"$bin" rate "$tmp/one.json" --plot "$tmp/one.png" >"$tmp/one.out" 2>"$tmp/one.err"
+expect "one case plots, exit 0" $? "$(cat "$tmp/one.err")"
+cmp -s "$tmp/one.out" <("$bin" rate "$tmp/one.json")
+expect "results unchanged by --plot" $?
+file "$tmp/one.png" | grep -q "PNG image data, 1080 x 720"
+expect "one case: FILE as named, 1080 x 720 PNG" $? "$(file "$tmp/one.png")"
+
+# Several cases: FILE-<id>.ext, one per rated case.
+"$bin" rate examples/steam-turbines.json --plot "$tmp/steam.svg" >/dev/null 2>"$tmp/steam.err"
+expect "three steam cases plot, exit 0" $? "$(cat "$tmp/steam.err")"
+for f in "TG-2_condensing_turbine_heat-balance_check_at_100_load" "TG-2_condensing_turbine_guaranteed_efficiency" \
+         "BP-1_back-pressure_turbine_feeding_the_4_barg_process_header"; do
+  [ -s "$tmp/steam-$f.svg" ]
+  expect "several cases: steam-$f.svg" $? "$(ls "$tmp")"
+done
+[ ! -e "$tmp/steam.svg" ]
+expect "several cases: no FILE itself" $?
+rsvg-convert -d 108 -p 108 -o "$tmp/steam.png" "$tmp/steam-TG-2_condensing_turbine_guaranteed_efficiency.svg"
+file "$tmp/steam.png" | grep -q "PNG image data, 1080 x 720"
+expect "the SVG rasterises to 1080 x 720 at 108 dpi" $? "$(file "$tmp/steam.png")"
+
+# A PDF: one page per case, with its text; T-s on request.
+"$bin" rate examples/steam-turbines.json --plot "$tmp/steam.pdf" --plot-diagram T-s >/dev/null 2>&1
+expect "steam cases plot to one PDF" $?
+pdfinfo "$tmp/steam.pdf" | grep -qE '^Pages: +3$'
+expect "one page per case" $? "$(pdfinfo "$tmp/steam.pdf" | grep Pages)"
+pdfinfo "$tmp/steam.pdf" | grep -qE '^Page size: +720 x 480 pts'
+expect "720 x 480 pt pages" $?
+pdftotext -layout "$tmp/steam.pdf" "$tmp/steam.txt"
+for text in "BP-1 back-pressure turbine" "temperature T [degC]" "specific entropy s [kJ/(kg K)]" "0.7133" \
+            "p1 = 41 barg"; do
+  grep -qF "$text" "$tmp/steam.txt"
+  expect "PDF text: $text" $?
+done
+
+# check --plot draws as rate does.
+"$bin" check examples/steam-turbines.json --plot "$tmp/check.pdf" >/dev/null 2>&1
+expect "check --plot: exit 0" $?
+pdfinfo "$tmp/check.pdf" | grep -qE '^Pages: +3$'
+expect "check --plot: one page per case" $?
+
+# A failed case gets no chart; the others do; exit 1.
+cat >"$tmp/mixed.json" <<'JSON'
+{ "cases": [
+  { "id": "good", "machine": "compressor", "fluid": "air",
+    "inlet": { "pressure": "1 bar", "temperature": "20 degC" }, "outlet": { "pressure": "3 bar" }, "efficiency": 0.8 },
+  { "id": "bad", "machine": "compressor", "fluid": "air",
+    "inlet": { "pressure": "1 bar", "temperature": "20 degC" }, "outlet": { "pressure": "3 bar" } } ] }
+JSON
+"$bin" rate "$tmp/mixed.json" --plot "$tmp/mixed.png" >/dev/null 2>&1
+expect "a failed case: exit 1" $(( $? == 1 ? 0 : 1 ))
+[ -s "$tmp/mixed-good.png" ] && [ ! -e "$tmp/mixed-bad.png" ]
+expect "a failed case: no chart, the good one drawn" $? "$(ls "$tmp")"
+
+# Unusable names: exit 2 before rating, nothing written.
+"$bin" rate "$tmp/one.json" --plot "$tmp/one.jpg" >"$tmp/jpg.out" 2>"$tmp/jpg.err"
+status=$?
+expect "--plot .jpg: exit 2" $(( status == 2 ? 0 : 1 ))
+[ "$(cat "$tmp/jpg.err")" = "error: $tmp/one.jpg: a picture is written as .svg, .png or .pdf; this name ends in \".jpg\"" ]
+expect "--plot .jpg: the message" $? "$(cat "$tmp/jpg.err")"
+[ ! -s "$tmp/jpg.out" ]
+expect "--plot .jpg: no results" $?
+"$bin" rate "$tmp/one.json" --plot "$tmp/one.json.pdf" --plot-diagram p-v >/dev/null 2>"$tmp/pv.err"
+expect "--plot-diagram p-v: exit 2" $(( $? == 2 ? 0 : 1 ))
+grep -q "p-v not in {h-s,T-s}" "$tmp/pv.err"
+expect "--plot-diagram p-v: the choices named" $? "$(cat "$tmp/pv.err")"
+"$bin" rate "$tmp/one.json" --plot "$tmp/no/such/dir.png" >/dev/null 2>"$tmp/dir.err"
+expect "--plot into a missing directory: exit 2" $(( $? == 2 ? 0 : 1 ))
+grep -q "^error: $tmp/no/such/dir.png: " "$tmp/dir.err"
+expect "--plot into a missing directory: the file named" $? "$(cat "$tmp/dir.err")"
+
+finish
