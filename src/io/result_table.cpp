@@ -42,7 +42,12 @@ class CaseTable {
   const CaseInput* in() const { return o_.input ? &*o_.input : nullptr; }
 
   void row(std::string_view label, const std::string& value, std::string_view note) {
-    std::string line = fmt::format("  {:<{}}{:<{}}{}", label, kLabelWidth, value, value_width_, note);
+    // A value wider than its column (a long written number) keeps one space before the note.
+    const auto columns = static_cast<int>(std::count_if(value.begin(), value.end(), [](char c) {
+      return (static_cast<unsigned char>(c) & 0xC0) != 0x80;  // code points, as fmt pads
+    }));
+    const int width = std::max(value_width_, columns + (note.empty() ? 0 : 1));
+    std::string line = fmt::format("  {:<{}}{:<{}}{}", label, kLabelWidth, value, width, note);
     line.erase(line.find_last_not_of(' ') + 1);
     out_ << escape_control(line) << '\n';
   }

@@ -120,4 +120,13 @@ expect "the warning is on standard error, naming the case" $? "$(cat "$tmp/typo.
 grep -q "psia\|psig\|degF" "$tmp/us.txt" && grep -q " hp" "$tmp/us.txt"
 expect "--units us shows US units" $?
 
+# A given value written wider than its column keeps a space before its note.
+cat >"$tmp/long.json" <<'JSON'
+{"machine": "turbine", "fluid": "steam", "inlet": {"pressure": "47.635 MPa", "temperature": "644.467 K"},
+ "outlet": {"pressure": "14.2685 MPa", "enthalpy": "1665175.3136656282 J/kg"}, "mass_flow": "5.46 kg/s"}
+JSON
+"$bin" rate "$tmp/long.json" >"$tmp/long.txt" 2>/dev/null
+grep -qF '  outlet enthalpy                1665175.3136656282 J/kg given' "$tmp/long.txt"
+expect "a long written value and its note stay apart" $? "$(grep 'outlet enthalpy' "$tmp/long.txt")"
+
 finish
