@@ -1,6 +1,7 @@
 #include "search.hpp"
 
 #include <cmath>
+#include <optional>
 #include <tuple>
 #include <utility>
 #include <vector>
@@ -12,13 +13,25 @@
 namespace shaftwork::machines {
 namespace {
 
-// f(x), or nothing where the state cannot be evaluated.
-std::optional<double> evaluate(const std::function<double(double)>& f, double x) {
+// The function a scan samples, and the first failure to converge among its samples.
+struct Probe {
+  const std::function<double(double)>& f;
+  std::optional<Error> failure = std::nullopt;
+};
+
+// f(x), or nothing where the state cannot be evaluated. A sample whose evaluation does not
+// converge (a polytropic path far from the solution) counts as not evaluable and is kept, so
+// that a scan that finds no root can say why; the root itself is closed on f, which throws.
+std::optional<double> evaluate(Probe& probe, double x) {
   try {
-    const double v = f(x);
+    const double v = probe.f(x);
     if (std::isfinite(v)) return v;
   } catch (const Error& e) {
-    if (e.kind() != ErrorKind::bad_input && e.kind() != ErrorKind::out_of_range) throw;
+    if (e.kind() == ErrorKind::no_convergence) {
+      if (!probe.failure) probe.failure = e;
+    } else if (e.kind() != ErrorKind::bad_input && e.kind() != ErrorKind::out_of_range) {
+      throw;
+    }
   }
   return std::nullopt;
 }
@@ -31,7 +44,7 @@ double close_on(const std::function<double(double)>& f, double a, double b, cons
 
 // Where f becomes evaluable between `outside` (not evaluable) and `inside`: bisection to 1e-15
 // of x. The value there, with its place.
-std::pair<double, double> valid_edge(const std::function<double(double)>& f, double outside, double inside,
+std::pair<double, double> valid_edge(Probe& f, double outside, double inside,
                                      double inside_value) {
   while (std::fabs(inside - outside) > 1e-15 * std::fabs(inside)) {
     const double mid = 0.5 * (outside + inside);
@@ -55,7 +68,7 @@ struct Sample {
   std::optional<double> v;
 };
 
-std::vector<Sample> sample(const std::function<double(double)>& f, double low, double high, int points) {
+std::vector<Sample> sample(Probe& f, double low, double high, int points) {
   std::vector<Sample> samples;
   for (int i = 0; i <= points; ++i) {
     const double x = low * std::pow(high / low, static_cast<double>(i) / points);
@@ -64,7 +77,7 @@ std::vector<Sample> sample(const std::function<double(double)>& f, double low, d
   return samples;
 }
 
-std::optional<ScanRoot> dip_root(const std::function<double(double)>& f, const std::vector<Sample>& s,
+std::optional<ScanRoot> dip_root(Probe& probe, const std::vector<Sample>& s,
                                  std::size_t from, const std::string& what) {
   const double g = 0.5 * (std::sqrt(5.0) - 1.0);
   for (std::size_t i = from + 1; i + 1 < s.size(); ++i) {
@@ -74,11 +87,11 @@ std::optional<ScanRoot> dip_root(const std::function<double(double)>& f, const s
     double a = s[i - 1].x, b = s[i + 1].x;
     for (int k = 0; k < 60 && b - a > 1e-13 * b; ++k) {
       const double c = b - g * (b - a), d = a + g * (b - a);
-      const auto fc = evaluate(f, c), fd = evaluate(f, d);
+      const auto fc = evaluate(probe, c), fd = evaluate(probe, d);
       if (!fc || !fd) break;
       if (sign * *fc <= 0 || sign * *fd <= 0) {
         const double m = sign * *fc <= 0 ? c : d;
-        return ScanRoot{close_on(f, s[i - 1].x, m, what), close_on(f, m, s[i + 1].x, what)};
+        return ScanRoot{close_on(probe.f, s[i - 1].x, m, what), close_on(probe.f, m, s[i + 1].x, what)};
       }
       if (sign * *fc < sign * *fd) {
         b = d;
@@ -95,8 +108,9 @@ std::optional<ScanRoot> dip_root(const std::function<double(double)>& f, const s
 // f there counts as a scan point: a root between the edge of the valid range and the first
 // point inside it (an inlet a hair above 273.15 K whose isentropic outlet would be below it)
 // is found too.
-std::optional<ScanRoot> scan(const std::function<double(double)>& f, double low, double high, int points,
-                             const std::string& what, bool edges = false) {
+std::optional<ScanRoot> scan(Probe& probe, double low, double high, int points, const std::string& what,
+                             bool edges = false) {
+  const std::function<double(double)>& f = probe.f;
   std::optional<ScanRoot> found;
   std::vector<Sample> samples;
   std::size_t found_at = 0;
@@ -105,13 +119,13 @@ std::optional<ScanRoot> scan(const std::function<double(double)>& f, double low,
   bool previous_valid = true;
   for (int i = 0; i <= points; ++i) {
     const double x = low * std::pow(high / low, static_cast<double>(i) / points);
-    auto v = evaluate(f, x);
+    auto v = evaluate(probe, x);
     if (edges && i > 0 && v.has_value() != previous_valid) {
       const double before = low * std::pow(high / low, static_cast<double>(i - 1) / points);
       if (v && !found) {  // becomes valid: the edge stands in for the point before
-        std::tie(previous_x, previous) = valid_edge(f, before, x, *v);
+        std::tie(previous_x, previous) = valid_edge(probe, before, x, *v);
       } else if (!v && previous && !found) {  // stops being valid: the edge is one more point
-        const auto [xe, ve] = valid_edge(f, x, before, *previous);
+        const auto [xe, ve] = valid_edge(probe, x, before, *previous);
         if (ve == 0 || (*previous != 0 && (*previous > 0) != (ve > 0))) {
           return ScanRoot{ve == 0 ? xe : close_on(f, previous_x, xe, what), std::nullopt};
         }
@@ -134,7 +148,7 @@ std::optional<ScanRoot> scan(const std::function<double(double)>& f, double low,
   }
   // No second change of sign: a second solution may still touch zero between two points.
   if (found) {
-    if (const auto dip = dip_root(f, samples, found_at, what)) found->another = dip->x;
+    if (const auto dip = dip_root(probe, samples, found_at, what)) found->another = dip->x;
   }
   return found;
 }
@@ -143,11 +157,13 @@ std::optional<ScanRoot> scan(const std::function<double(double)>& f, double low,
 
 ScanRoot scan_for_root(const std::function<double(double)>& f, double low, double high, const std::string& what,
                        const std::string& no_solution) {
+  Probe probe{f};
   for (const int points : {48, 384}) {
-    if (auto root = scan(f, low, high, points, what)) return *root;
+    if (auto root = scan(probe, low, high, points, what)) return *root;
   }
-  if (auto root = scan(f, low, high, 48, what, true)) return *root;
-  if (auto root = dip_root(f, sample(f, low, high, 384), 0, what)) return *root;
+  if (auto root = scan(probe, low, high, 48, what, true)) return *root;
+  if (auto root = dip_root(probe, sample(probe, low, high, 384), 0, what)) return *root;
+  if (probe.failure) throw *probe.failure;  // the answer may lie where the model did not converge
   refuse(no_solution);
 }
 
