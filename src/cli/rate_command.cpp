@@ -49,16 +49,40 @@ bool report_cases(const std::vector<io::CaseOutcome>& outcomes) {
     if (!o.ok()) {
       case_failed = true;
       std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
+    } else if (!o.guarantee_error.empty()) {
+      case_failed = true;
+      std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.guarantee_error);
     }
   }
   return case_failed;
 }
 
-std::string format_results(const std::vector<io::CaseOutcome>& outcomes, const RateOptions& options) {
+// Each file-level guarantee that could not be judged, on standard error. Returns whether one
+// could not be judged.
+bool report_tests(const std::vector<io::TestOutcome>& tests) {
+  bool failed = false;
+  for (const auto& t : tests) {
+    for (const auto& w : t.warnings) std::cerr << fmt::format("warning: {}: {}\n", t.origin, w);
+    if (!t.result) {
+      failed = true;
+      std::cerr << fmt::format("error: {}: {}\n", t.origin, t.error);
+    }
+  }
+  return failed;
+}
+
+// Exit 3 (the contract): every case rated, and a guarantee not met.
+bool guarantee_failed(const std::vector<io::CaseOutcome>& outcomes, const std::vector<io::TestOutcome>& tests) {
+  return std::any_of(outcomes.begin(), outcomes.end(), [](const io::CaseOutcome& o) { return o.guarantee_failed(); }) ||
+         std::any_of(tests.begin(), tests.end(), [](const io::TestOutcome& t) { return t.failed(); });
+}
+
+std::string format_results(const std::vector<io::CaseOutcome>& outcomes, const std::vector<io::TestOutcome>& tests,
+                           const RateOptions& options) {
   const io::UnitSystem system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
   std::ostringstream text;
   if (options.format == "json") {
-    io::write_json(text, outcomes);
+    io::write_json(text, outcomes, tests);
   } else if (options.format == "jsonl") {
     for (const auto& o : outcomes) text << io::result_json(o).dump() << '\n';
   } else if (options.format == "csv") {
@@ -68,7 +92,7 @@ std::string format_results(const std::vector<io::CaseOutcome>& outcomes, const R
     table.system = system;
     table.system_forced = options.units_given;
     table.show_origin = options.files.size() > 1;
-    io::write_table(text, outcomes, table);
+    io::write_table(text, outcomes, table, tests);
   }
   return text.str();
 }
@@ -88,19 +112,21 @@ int run_rate(const RateOptions& options) {
   }
   bool file_unusable = false;
   std::vector<io::CaseOutcome> outcomes;
+  std::vector<io::TestOutcome> tests;  // the files' own guarantees
   for (const auto& path : options.files) {
     const std::string origin = path == "-" ? "standard input" : path;
     try {
       const auto document = io::parse_json_strict(io::read_text_file(path), origin);
-      auto rated = io::rate_document(document, origin, fluids);
-      for (auto& o : rated) outcomes.push_back(std::move(o));
+      auto rated = io::rate_file(document, origin, fluids);
+      for (auto& o : rated.cases) outcomes.push_back(std::move(o));
+      if (rated.test) tests.push_back(std::move(*rated.test));
     } catch (const Error& e) {
       std::cerr << "error: " << e.what() << '\n';
       file_unusable = true;
     }
   }
-  const std::string text = format_results(outcomes, options);
-  const bool case_failed = report_cases(outcomes);
+  const std::string text = format_results(outcomes, tests, options);
+  const bool case_failed = report_cases(outcomes) | report_tests(tests);
   if (!file) {
     std::cout << text << std::flush;
   } else if (file_unusable) {
@@ -117,7 +143,8 @@ int run_rate(const RateOptions& options) {
     }
   }
   if (file_unusable) return kExitUnusable;
-  return case_failed ? kExitCaseFailed : kExitOk;
+  if (case_failed) return kExitCaseFailed;
+  return guarantee_failed(outcomes, tests) ? kExitGuaranteeFailed : kExitOk;
 }
 
 // --jobs: a whole number of threads, at least 1. (CLI11's PositiveNumber answered 0 with the

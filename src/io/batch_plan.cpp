@@ -97,7 +97,7 @@ InputColumn input_column(std::size_t i, const std::string& header, const InputSp
   c.scale = u.scale;
   c.offset = u.offset;
   c.gauge = u.gauge;
-  c.factor = c.dimension == Dimension::length ? units::kStandardGravity : 1.0;
+  c.factor = spec.input == Input::head && c.dimension == Dimension::length ? units::kStandardGravity : 1.0;
   if (spec.input == Input::barometric_pressure) {  // a gauge barometer is refused
     const std::string gauge = given_value_problem(spec.input, units::kStandardAtmosphere, unit);
     if (!gauge.empty()) fail(gauge);
@@ -219,6 +219,8 @@ std::vector<const ResultKey*> default_outputs(const Plan& plan, const BatchTempl
   for (const ResultKey& k : result_keys()) {
     if (!k.in_batch || column_gives(plan, k.key)) continue;
     if ((k.applies == Applies::two_phase && !two_phase) || (k.applies == Applies::pump && !pump)) continue;
+    if (k.applies == Applies::speed && !given(Input::speed)) continue;
+    if (k.applies == Applies::impeller && !(given(Input::speed) && given(Input::impeller_tip_diameter))) continue;
     if (k.key.rfind("power_balance.", 0) == 0 && !(flow && power)) continue;
     if (k.key.rfind("efficiency_check.", 0) == 0 && !efficiency) continue;
     out.push_back(&k);

@@ -4,6 +4,7 @@
 
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/case_reader.hpp"
+#include "shaftwork/io/guarantee_reader.hpp"
 
 namespace shaftwork::io {
 
@@ -20,6 +21,8 @@ CaseOutcome rate_case(const json& case_object, size_t index, FluidFactory& fluid
     outcome.warnings.insert(outcome.warnings.end(), rating.warnings.begin(), rating.warnings.end());
     outcome.input = std::move(input);
     outcome.rating = std::move(rating);
+    const std::string guarantee(kGuaranteeKey);
+    if (case_object.contains(guarantee)) judge_case_guarantee(case_object[guarantee], fluids, outcome);
   } catch (const Error& e) {
     outcome.error = e.what();
   } catch (const json::exception& e) {
@@ -34,6 +37,17 @@ std::vector<CaseOutcome> rate_document(const json& document, const std::string& 
   outcomes.reserve(cases.size());
   for (size_t i = 0; i < cases.size(); ++i) outcomes.push_back(rate_case(*cases[i], i, fluids, origin));
   return outcomes;
+}
+
+RatedFile rate_file(const json& document, const std::string& origin, FluidFactory& fluids) {
+  RatedFile out;
+  out.cases = rate_document(document, origin, fluids);
+  const std::string guarantee(kGuaranteeKey);
+  // A single case object's "guarantee" is the case's own, judged by rate_case.
+  if (document.contains("cases") && document.contains(guarantee)) {
+    out.test = judge_file_guarantee(document[guarantee], out.cases, origin, fluids);
+  }
+  return out;
 }
 
 }  // namespace shaftwork::io

@@ -27,6 +27,15 @@ void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, Unit
     const std::string_view unit = column_unit(k.dimension, system);
     out << ',' << csv_field(unit.empty() ? std::string(k.key) : fmt::format("{} [{}]", k.key, unit));
   }
+  // Guarantee columns when some case has a guarantee of its own.
+  std::vector<const machines::GuaranteeResult*> judged;
+  bool guarantees = false;
+  for (const auto& o : outcomes) {
+    if (o.guarantee) judged.push_back(&*o.guarantee);
+    guarantees = guarantees || o.guarantee || !o.guarantee_error.empty();
+  }
+  const GuaranteeColumns columns = guarantee_columns(judged);
+  if (guarantees) out << columns.header(system);
   out << ",warnings\r\n";
   constexpr int kDigits = 10;
   for (const auto& o : outcomes) {
@@ -49,6 +58,7 @@ void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, Unit
       out << ",,,";
       for (std::size_t i = 0; i < result_keys().size(); ++i) out << ',';
     }
+    if (guarantees) out << columns.cells(o.guarantee ? &*o.guarantee : nullptr, system, o.guarantee_error);
     out << ',' << csv_field(fmt::format("{}", fmt::join(o.warnings, "; "))) << "\r\n";
   }
 }

@@ -7,29 +7,28 @@
 
 #include "shaftwork/io/result_keys.hpp"
 #include "shaftwork/io/result_writer.hpp"
+#include "json_numbers.hpp"
 
 namespace shaftwork::io {
-namespace {
 
 using nlohmann::ordered_json;
 
-// An SI value rounded to 15 significant digits: the digits a double holds for sure, so
-// that unit conversions leave no noise in the last place (4120800, not 4120800.0000000005).
-double rounded(double x) {
+double json_rounded(double x) {
   if (x == 0 || !std::isfinite(x)) return x + 0.0;
   const std::string text = fmt::format("{:.15g}", x);
   return std::strtod(text.c_str(), nullptr);
 }
 
-// Sets j[a][b]... along the dotted key.
-void place(ordered_json& j, std::string_view key, double value) {
+void json_place(ordered_json& j, std::string_view key, double value) {
   ordered_json* at = &j;
   for (auto dot = key.find('.'); dot != std::string_view::npos; dot = key.find('.')) {
     at = &(*at)[std::string(key.substr(0, dot))];
     key.remove_prefix(dot + 1);
   }
-  (*at)[std::string(key)] = rounded(value);
+  (*at)[std::string(key)] = json_rounded(value);
 }
+
+namespace {
 
 ordered_json error_json(const CaseOutcome& o) {
   ordered_json j;
@@ -65,22 +64,34 @@ ordered_json result_json(const CaseOutcome& o) {
     const std::optional<double> v = k.value(r);
     if (!v) continue;
     if (!std::isfinite(*v)) {
-      CaseOutcome failed{o.id, o.origin, std::nullopt, std::nullopt,
-                         fmt::format("the result {} is not a finite number; the case cannot be rated", k.key),
-                         o.warnings};
+      CaseOutcome failed;
+      failed.id = o.id;
+      failed.origin = o.origin;
+      failed.error = fmt::format("the result {} is not a finite number; the case cannot be rated", k.key);
+      failed.warnings = o.warnings;
       return error_json(failed);
     }
-    place(j, k.key, *v);
+    json_place(j, k.key, *v);
   }
   if (r.efficiency_check) j["efficiency_check"]["key"] = machines::key_of(r.efficiency_check->input);
+  if (o.guarantee) {
+    j["guarantee"] = guarantee_json(*o.guarantee);
+  } else if (!o.guarantee_error.empty()) {
+    j["guarantee"] = ordered_json{{"status", "error"}, {"error", o.guarantee_error}};
+  }
   j["warnings"] = o.warnings;
   return j;
 }
 
-void write_json(std::ostream& out, const std::vector<CaseOutcome>& outcomes) {
+void write_json(std::ostream& out, const std::vector<CaseOutcome>& outcomes, const std::vector<TestOutcome>& tests) {
   ordered_json doc;
   doc["results"] = ordered_json::array();
   for (const auto& o : outcomes) doc["results"].push_back(result_json(o));
+  if (tests.size() == 1) doc["test"] = test_json(tests.front());
+  if (tests.size() > 1) {
+    doc["test"] = ordered_json::array();
+    for (const TestOutcome& t : tests) doc["test"].push_back(test_json(t));
+  }
   out << doc.dump(2, ' ', false, ordered_json::error_handler_t::replace) << '\n';
 }
 

@@ -141,7 +141,8 @@ class CaseTable {
 
 }  // namespace
 
-void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, const TableOptions& options) {
+void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, const TableOptions& options,
+                 const std::vector<TestOutcome>& tests) {
   bool first = true;
   for (const auto& o : outcomes) {
     if (!first) out << '\n';
@@ -154,6 +155,23 @@ void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, co
       continue;
     }
     CaseTable(out, o, options).write(options.show_origin);
+    if (o.guarantee) {
+      write_guarantee_table(out, *o.guarantee, DisplayUnits(options.system, options.system_forced, &*o.input, *o.rating));
+    } else if (!o.guarantee_error.empty()) {
+      out << "  guarantee not judged: " << escape_control(o.guarantee_error) << '\n';
+    }
+  }
+  for (const TestOutcome& t : tests) {
+    out << '\n' << escape_control(fmt::format("test of {} ({} test points)", t.origin, t.points.size())) << '\n';
+    if (t.result) {
+      machines::Rating shape;  // the machine chooses some units (a pump's flows in m3/h or gpm)
+      shape.machine = t.result->machine;
+      const DisplayUnits units(options.system, options.system_forced, t.units_from ? &*t.units_from : nullptr, shape);
+      write_guarantee_table(out, *t.result, units);
+    } else {
+      out << "  not judged: " << escape_control(t.error) << '\n';
+    }
+    for (const auto& w : t.warnings) out << "  warning: " << escape_control(w) << '\n';
   }
 }
 

@@ -24,6 +24,8 @@ inline constexpr std::string_view kIdKey = "id";
 inline constexpr std::string_view kMachineKey = "machine";
 inline constexpr std::string_view kFluidKey = "fluid";
 inline constexpr std::string_view kNoteKey = "note";
+// A case's own guarantee (io/guarantee_reader.hpp); at the top of a file, the file's.
+inline constexpr std::string_view kGuaranteeKey = "guarantee";
 
 struct GivenValue {
   machines::Input input;

@@ -4,6 +4,7 @@
 // other cases are rated all the same.
 #pragma once
 
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -20,8 +21,18 @@ namespace shaftwork::io {
 CaseOutcome rate_case(const nlohmann::json& case_object, size_t index, FluidFactory& fluids,
                       const std::string& origin = "");
 
-// Rates every case of a document. Throws bad_input when it is not a case file.
+// Rates every case of a document (each case's own guarantee judged with it). Throws
+// bad_input when it is not a case file.
 std::vector<CaseOutcome> rate_document(const nlohmann::json& document, const std::string& origin,
                                        FluidFactory& fluids);
+
+// A file's cases and, when the file holds a guarantee beside "cases", the test judged on
+// all of them.
+struct RatedFile {
+  std::vector<CaseOutcome> cases;
+  std::optional<TestOutcome> test;
+};
+// rate_document, and the file's guarantee. Throws bad_input when it is not a case file.
+RatedFile rate_file(const nlohmann::json& document, const std::string& origin, FluidFactory& fluids);
 
 }  // namespace shaftwork::io
