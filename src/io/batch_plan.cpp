@@ -263,6 +263,10 @@ void plan_outputs(Plan& plan, const BatchTemplate& templ, const BatchOptions& op
     }
     plan.outputs.push_back(out);
   }
+  if (templ.guarantee) {
+    plan.guarantee = guarantee_columns(*templ.guarantee, templ.input.machine);
+    line += plan.guarantee->header(options.units);
+  }
   line += ",warnings\r\n";
 }
 

@@ -39,6 +39,7 @@ struct Plan {
   bool has_barometer_column = false;
   std::vector<OutputColumn> outputs;
   bool solved_for_column = true;     // the default columns only
+  std::optional<GuaranteeColumns> guarantee;  // the verdict columns, when the template has a guarantee
   std::string output_header;         // the whole csv header line, with its line end
   std::vector<std::string> notices;  // one per carried column
 };

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <span>
 
 #include <fmt/format.h>
 
@@ -82,15 +83,32 @@ BatchShared::BatchShared(const Plan& p, const BatchTemplate& t, const BatchOptio
 
 RowRater::RowRater(const BatchShared& shared) : shared_(shared), plan_(shared.plan), input_(shared.base) {}
 
-void RowRater::rate_chunk(CsvChunk& chunk, OutputBuffer& out, std::size_t& rows, std::size_t& failed) {
+void RowRater::rate_chunk(CsvChunk& chunk, OutputBuffer& out, RowCounts& counts) {
   CsvRecordParser parser(chunk.text, chunk.first_line);
   while (parser.next(record_)) {
-    ++rows;
-    if (!rate_record(out)) ++failed;
+    ++counts.rows;
+    if (!rate_record(out, counts)) ++counts.failed;
   }
 }
 
-bool RowRater::rate_record(OutputBuffer& out) {
+// The row's verdict on the template's guarantee, as a single test point.
+void RowRater::judge_guarantee(std::size_t line, RowCounts& counts) {
+  guarantee_.reset();
+  guarantee_error_.clear();
+  machines::TestPoint point;
+  point.id = id_.empty() ? fmt::format("line {}", line) : std::string(id_);
+  point.input = input_;
+  point.rating = rating_;
+  try {
+    guarantee_ = machines::judge(*shared_.templ.guarantee, std::span(&point, 1));
+    if (guarantee_->verdict == machines::Verdict::fail) ++counts.guarantees_failed;
+  } catch (const Error& e) {
+    guarantee_error_ = fmt::format("guarantee: {}", e.what());
+    ++counts.guarantees_not_judged;
+  }
+}
+
+bool RowRater::rate_record(OutputBuffer& out, RowCounts& counts) {
   const std::size_t line = record_.line;
   error_.clear();
   id_ = {};
@@ -114,6 +132,7 @@ bool RowRater::rate_record(OutputBuffer& out) {
       error_ = fmt::format("line {}: {}", line, e.what());
     }
   }
+  if (rated && shared_.templ.guarantee) judge_guarantee(line, counts);
   if (shared_.options.format == BatchFormat::jsonl) {
     write_jsonl(out, rated, line);
   } else {
@@ -214,6 +233,10 @@ void RowRater::write_csv_row(OutputBuffer& out, bool rated) {
     if (v && std::isfinite(*v)) p = format_significant(p, (*v - o.offset) / o.scale, kSignificantDigits);
   }
   out.commit(p);
+  if (plan_.guarantee) {
+    out.append(plan_.guarantee->cells(rated && guarantee_ ? &*guarantee_ : nullptr, shared_.options.units,
+                                      rated ? guarantee_error_ : std::string()));
+  }
   out.push_back(',');
   append_warnings(out, rated);
   out.append("\r\n");
@@ -247,6 +270,10 @@ void RowRater::write_jsonl(OutputBuffer& out, bool rated, std::size_t line) {
     o.input = std::move(input);
     o.warnings.insert(o.warnings.end(), rating_.warnings.begin(), rating_.warnings.end());
     o.rating = rating_;
+    if (shared_.templ.guarantee) {
+      o.guarantee = guarantee_;
+      o.guarantee_error = guarantee_error_;
+    }
   }
   // A CSV cell may hold bytes that are not UTF-8 (an id from a logger): written as U+FFFD,
   // where dump() would otherwise throw out of the batch.

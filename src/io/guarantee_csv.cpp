@@ -63,4 +63,13 @@ GuaranteeColumns guarantee_columns(const std::vector<const machines::GuaranteeRe
   return columns;
 }
 
+GuaranteeColumns guarantee_columns(const machines::Guarantee& g, machines::MachineKind machine) {
+  GuaranteeColumns columns;
+  for (machines::Checked q : machines::kAllChecked) {
+    const bool exhaust = machine == machines::MachineKind::turbine && q == machines::Checked::outlet_pressure;
+    if ((g.value(q) && !exhaust) || g.tolerance[static_cast<std::size_t>(q)]) columns.checks.push_back(q);
+  }
+  return columns;
+}
+
 }  // namespace shaftwork::io

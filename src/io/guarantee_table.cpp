@@ -14,18 +14,25 @@ constexpr int kLabelWidth = 24;
 constexpr int kValueWidth = 16;
 
 Precision precision_of(units::Dimension d) {
-  return d == units::Dimension::fraction ? Precision{Precision::Kind::decimals, 4} : Precision{Precision::Kind::significant, 5};
+  if (d == units::Dimension::fraction) return {Precision::Kind::decimals, 4};
+  if (d == units::Dimension::temperature) return {Precision::Kind::decimals, 2};
+  return {Precision::Kind::significant, 5};
 }
 
 std::string value_text(const std::optional<double>& v, units::Dimension d, const DisplayUnits& units) {
   return v ? units.text(*v, d, precision_of(d)) : "-";
 }
 
+// "-2", "+4", "0".
+std::string signed_percent(double x) { return x == 0 ? "0" : fmt::format("{:+g}", x); }
+
 // "-2 to +4 %", ">= -3 %", "<= +4 %", "any".
 std::string tolerance_text(const machines::Tolerance& t) {
-  if (t.min_percent && t.max_percent) return fmt::format("{:+g} to {:+g} %", *t.min_percent, *t.max_percent);
-  if (t.min_percent) return fmt::format(">= {:+g} %", *t.min_percent);
-  if (t.max_percent) return fmt::format("<= {:+g} %", *t.max_percent);
+  if (t.min_percent && t.max_percent) {
+    return fmt::format("{} to {} %", signed_percent(*t.min_percent), signed_percent(*t.max_percent));
+  }
+  if (t.min_percent) return fmt::format(">= {} %", signed_percent(*t.min_percent));
+  if (t.max_percent) return fmt::format("<= {} %", signed_percent(*t.max_percent));
   return "any";
 }
 
@@ -63,6 +70,17 @@ void similarity_line(std::ostream& out, const machines::SimilarityCheck& s) {
 void write_guarantee_table(std::ostream& out, const machines::GuaranteeResult& g, const DisplayUnits& units) {
   line(out, fmt::format("  guarantee: {}", machines::verdict_name(g.verdict)));
   line(out, fmt::format("    {}", g.method));
+  // Where the guarantee point came out: its flow and outlet state.
+  std::string at;
+  for (const machines::NamedValue& v : g.converted) {
+    const std::string_view label = v.key == "mass_flow"            ? "mass flow"
+                                   : v.key == "outlet.temperature" ? "outlet temperature"
+                                   : v.key == "outlet.quality"     ? "outlet quality"
+                                                                   : "";
+    if (label.empty()) continue;
+    at += fmt::format("{}{} {}", at.empty() ? "" : ", ", label, units.text(v.value, v.dimension, precision_of(v.dimension)));
+  }
+  if (!at.empty()) line(out, fmt::format("    at the guarantee: {}", at));
   line(out, fmt::format("    {:<{}}{:<{}}{:<{}}{:<{}}{:<{}}{:<{}}{}", "quantity", kLabelWidth, "measured", kValueWidth,
                         "converted", kValueWidth, "guaranteed", kValueWidth, "tolerance", kValueWidth + 6, "deviation",
                         kValueWidth, "verdict"));

@@ -26,7 +26,7 @@ constexpr CheckedSpec kChecked[kCheckedCount] = {
     {Checked::pump_efficiency, "pump_efficiency", D::fraction, "pump efficiency"},
     {Checked::power, "power", D::power, "shaft power"},
     {Checked::mass_flow, "mass_flow", D::mass_flow, "mass flow"},
-    {Checked::volume_flow, "volume_flow", D::volume_flow, "inlet volume flow"},
+    {Checked::volume_flow, "volume_flow", D::volume_flow, "volume flow"},
 };
 
 // What each machine may be guaranteed (a value) and checked (a tolerance).

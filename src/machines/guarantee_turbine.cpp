@@ -93,10 +93,10 @@ GuaranteeResult judge_turbine(const Guarantee& guarantee, std::span<const TestPo
   const std::size_t nearest = nearest_index(x, m_read);
   const TestPoint& near = *carried[nearest].test;
   GuaranteeResult r;
-  r.method = fmt::format("the test's {} efficiency carried to the guarantee inlet and exhaust; flow by the "
-                         "choked-nozzle law m ~ sqrt(p_in rho_in){}",
+  r.method = fmt::format("the test's {} efficiency carried to the guarantee inlet and exhaust; {}",
                          basis == EfficiencyBasis::isentropic ? "isentropic" : "polytropic",
-                         guarantee.flow_given() ? ", the guarantee's own flow rated" : "");
+                         guarantee.flow_given() ? "rated at the guarantee's flow"
+                                                : "the test flow carried by the choked-nozzle law m ~ sqrt(p_in rho_in)");
   for (Checked q : {Checked::efficiency_isentropic, Checked::efficiency_polytropic, Checked::power}) {
     if (!guarantee.value(q)) continue;
     r.checks.push_back(make_check(g, MachineKind::turbine, q, rating_value(near.rating, q), rating_value(at, q), near));

@@ -88,6 +88,8 @@ struct GuaranteeColumns {
 };
 // The columns for these guarantees (the checks any of them makes, in kAllChecked order).
 GuaranteeColumns guarantee_columns(const std::vector<const machines::GuaranteeResult*>& guarantees);
+// The columns a guarantee of `machine` will fill, before any row is judged (batches).
+GuaranteeColumns guarantee_columns(const machines::Guarantee& g, machines::MachineKind machine);
 
 // Quotes a CSV field when it holds a comma, quote or line break (RFC 4180).
 std::string csv_field(std::string_view text);
