@@ -72,6 +72,10 @@ void check_tolerances(const Guarantee& g, MachineKind m, std::size_t points) {
                          "quantity; check outlet.pressure or head.polytropic at the guaranteed flow",
                          key));
     }
+    if (flow && m == MachineKind::turbine && !g.flow_given()) {
+      refuse(fmt::format("tolerances.{}: the guarantee gives no flow to check the test's against; give its mass_flow",
+                         key));
+    }
     if (flow && !(m == MachineKind::pump ? q == Checked::volume_flow : points == 1 && q == Checked::mass_flow)) {
       refuse(fmt::format("tolerances.{}: a {}'s flow is checked as {}", key, machine_name(m),
                          m == MachineKind::pump ? "volume_flow (the tolerance cross)"

@@ -187,6 +187,7 @@ GuaranteeResult judge_compressor(const Guarantee& g, std::span<const TestPoint> 
   }
   add_similarity(g, gin, conv, nearest, q_g, r);
   r.converted = rating_values(at);
+  r.warnings = at.warnings;  // of the guarantee point's rating (an ideal gas at pressure, ...)
   r.points = point_values(conv);
   r.nearest_point = conv[nearest].test->id;
   return r;

@@ -146,6 +146,12 @@ GuaranteeResult judge_pump(const Guarantee& guarantee, std::span<const TestPoint
            "is a test point (ISO 9906 asks for 3 to 5 points around the guarantee flow)");
   }
   const GuaranteeInlet gin = guarantee_inlet(guarantee, points.front());
+  const auto t_sat = gin.fluid->saturation_temperature(gin.state.pressure);
+  if (gin.state.is_wet() || (t_sat && gin.state.temperature >= *t_sat)) {
+    refuse(fmt::format("inlet: the guarantee's inlet ({:.6g} kPa, {:.2f} K) is not a liquid; give the inlet pressure "
+                       "of the guarantee point as well as its temperature",
+                       gin.state.pressure / 1e3, gin.state.temperature));
+  }
   const double rho_g = gin.state.density;
   Guarantee g = guarantee;  // with Q_G and H_G filled in
   g.value(Checked::volume_flow) = guaranteed_mass_flow(g, gin.state) / rho_g;

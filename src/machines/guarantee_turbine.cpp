@@ -109,6 +109,7 @@ GuaranteeResult judge_turbine(const Guarantee& guarantee, std::span<const TestPo
     r.points.push_back({c.test->id, 1.0, {{"mass_flow", D::mass_flow, c.flow}, {"efficiency.carried", D::fraction, c.eta}}});
   }
   r.converted = rating_values(at);
+  r.warnings = at.warnings;
   r.nearest_point = near.id;
   return r;
 }

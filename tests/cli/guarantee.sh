@@ -66,6 +66,17 @@ expect "a guarantee that cannot be judged: exit 1 and its message" $? "$(cat "$t
 grep -qE '^    shaft power +[0-9.]+ kW +[0-9.]+ kW +200 kW +<= \+4 % +\+[0-9.]+ % +fail$' "$tmp/fails.txt"
 expect "table: the failing line reads at a glance" $? "$(grep 'shaft power' "$tmp/fails.txt")"
 
+# A pump's guarantee inlet must be a liquid: 120 degC at the test's 1.05 bar is steam.
+/usr/bin/python3 - "$dir/pump-test-stand-grade-2b.json" "$tmp/hot.json" <<'PY'
+import json, sys
+doc = json.load(open(sys.argv[1]))
+doc["guarantee"]["inlet"] = {"temperature": "120 degC"}
+json.dump(doc, open(sys.argv[2], "w"))
+PY
+"$bin" rate "$tmp/hot.json" >/dev/null 2>"$tmp/hot.err"
+[ $? -eq 1 ] && grep -qxF "error: $tmp/hot.json: guarantee: inlet: the guarantee's inlet (105 kPa, 393.15 K) is not a liquid; give the inlet pressure of the guarantee point as well as its temperature" "$tmp/hot.err"
+expect "a pump guarantee at a vapour inlet: exit 1 and its message" $? "$(cat "$tmp/hot.err")"
+
 # A batch: each row of the week's log judged against the template's guarantee.
 /usr/bin/python3 - examples/compressor-week-log.template.json "$tmp/template.json" <<'PY'
 import json, sys
