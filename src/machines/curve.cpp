@@ -23,6 +23,17 @@ void refuse_beyond_reach(std::span<const double> x, double at, const std::string
                      what, show(at), 100 * beyond, range, 100 * kExtrapolationLimit));
 }
 
+void refuse_coinciding(std::span<const double> x, std::span<const std::string> ids, const std::string& what,
+                       std::string (*show)(double)) {
+  for (std::size_t i = 1; i < x.size(); ++i) {
+    if (x[i] <= x[i - 1] * (1 + 1e-9)) {
+      refuse(fmt::format("test points \"{}\" and \"{}\" convert to the same {} ({}): a curve needs distinct flows; "
+                         "average the two or keep one",
+                         ids[i - 1], ids[i], what, show(x[i])));
+    }
+  }
+}
+
 double read_linear(std::span<const double> x, std::span<const double> y, double at) {
   if (x.size() == 1) return y[0];
   std::size_t i = 1;

@@ -16,6 +16,12 @@ namespace shaftwork::machines {
 void refuse_beyond_reach(std::span<const double> x, double at, const std::string& what,
                          std::string (*show)(double));
 
+// Refuses two neighbours of the ascending flows `x` that coincide (within 1e-9 relative):
+// a curve read by straight lines needs distinct flows. `ids` names the points, `what` the
+// flow ("inlet volume flow").
+void refuse_coinciding(std::span<const double> x, std::span<const std::string> ids, const std::string& what,
+                       std::string (*show)(double));
+
 // y at `at` on the straight lines through (x_i, y_i), x ascending and distinct; beyond
 // the ends, the end line extended; a single point: its y.
 double read_linear(std::span<const double> x, std::span<const double> y, double at);

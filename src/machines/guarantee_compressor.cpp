@@ -95,13 +95,13 @@ std::vector<Converted> convert_all(const Guarantee& g, const GuaranteeInlet& gin
   std::vector<Converted> out;
   for (const TestPoint& p : points) out.push_back(convert(g, gin, p));
   std::sort(out.begin(), out.end(), [](const Converted& a, const Converted& b) { return a.flow < b.flow; });
-  for (std::size_t i = 1; i < out.size(); ++i) {
-    if (out[i].flow <= out[i - 1].flow * (1 + 1e-9)) {
-      refuse(fmt::format("test points \"{}\" and \"{}\" convert to the same inlet volume flow ({}): a curve needs "
-                         "distinct flows; average the two or keep one",
-                         out[i - 1].test->id, out[i].test->id, show_volume_flow(out[i].flow)));
-    }
+  std::vector<double> flows;
+  std::vector<std::string> ids;
+  for (const Converted& c : out) {
+    flows.push_back(c.flow);
+    ids.push_back(c.test->id);
   }
+  refuse_coinciding(flows, ids, "inlet volume flow", show_volume_flow);
   return out;
 }
 

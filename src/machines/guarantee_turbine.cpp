@@ -79,11 +79,14 @@ GuaranteeResult judge_turbine(const Guarantee& guarantee, std::span<const TestPo
   for (const TestPoint& p : points) carried.push_back(carry(gin, p, basis));
   std::sort(carried.begin(), carried.end(), [](const Carried& a, const Carried& b) { return a.flow < b.flow; });
   std::vector<double> x, eta, eta_m;
+  std::vector<std::string> ids;
   for (const Carried& c : carried) {
     x.push_back(c.flow);
     eta.push_back(c.eta);
     eta_m.push_back(c.eta_m);
+    ids.push_back(c.test->id);
   }
+  refuse_coinciding(x, ids, "mass flow", show_mass_flow);
   Guarantee g = guarantee;  // with the guaranteed mass flow filled in
   const double m_read = g.flow_given() ? guaranteed_mass_flow(g, gin.state) : x.front();
   g.value(Checked::mass_flow) = m_read;

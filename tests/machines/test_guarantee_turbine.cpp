@@ -94,8 +94,14 @@ TEST_CASE("turbine refusals: several points need the flow; another gas needs the
   tolerance.tolerance[static_cast<std::size_t>(Checked::mass_flow)] = machines::Tolerance{-2.0, 2.0};
   CHECK(std::string(test::error_of([&] { machines::judge(tolerance, std::span(two.data(), 1)); }).what()) ==
         "tolerances.mass_flow: the guarantee gives no flow to check the test's against; give its mass_flow");
-  // With the flow: the curve of two points, read between them.
+  // With the flow: two points at the same flow draw no curve.
   g.mass_flow = 3.8;
+  const std::vector<TestPoint> same = {expander("E1", 8e5, 820.0, 1.5e5, 0.86, 4.0),
+                                       expander("E3", 8e5, 820.0, 1.5e5, 0.84, 4.0)};
+  CHECK(std::string(test::error_of([&] { machines::judge(g, same); }).what()) ==
+        "test points \"E1\" and \"E3\" convert to the same mass flow (4 kg/s): a curve needs distinct flows; average "
+        "the two or keep one");
+  // The curve of two points, read between them.
   const machines::GuaranteeResult r = machines::judge(g, two);
   CHECK(value(r, "efficiency.isentropic") == Approx(0.855).epsilon(1e-12));
 }
