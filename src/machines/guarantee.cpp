@@ -55,6 +55,37 @@ Tolerance zero_tolerance(Checked q, MachineKind m) {
   return {0.0, std::nullopt};
 }
 
+// Why a tolerance on q would go unused (a quantity this guarantee never checks), or "".
+std::string unused_tolerance(const Guarantee& g, MachineKind m, Checked q, std::size_t points) {
+  const bool pump_head = m == MachineKind::pump && (g.value(Checked::head_height) || g.value(Checked::outlet_pressure));
+  switch (q) {
+    case Checked::outlet_pressure:
+      if (m == MachineKind::pump) return "a pump's discharge pressure is checked as its head: give the tolerance as head_height";
+      if (m == MachineKind::turbine) return "a turbine's outlet pressure is the guarantee's exhaust, not a checked quantity";
+      break;
+    case Checked::mass_flow:
+    case Checked::volume_flow:
+      if (m == MachineKind::compressor) {
+        return "a compressor's guarantee is read at its flow, so the flow is not a checked quantity; check "
+               "outlet.pressure or head.polytropic at the guaranteed flow";
+      }
+      if (m == MachineKind::pump) {
+        if (q == Checked::mass_flow) return "a pump's flow is checked as volume_flow (the tolerance cross)";
+        return pump_head ? "" : "a pump's flow is checked on the tolerance cross, which needs the guaranteed head";
+      }
+      if (q != Checked::mass_flow || points != 1) {
+        return "a turbine's flow is checked as mass_flow, for a single test point (the choked-nozzle law)";
+      }
+      return g.flow_given() ? "" : "the guarantee gives no flow to check the test's against; give its mass_flow";
+    case Checked::head_height:
+      if (pump_head) return "";
+      break;
+    default: break;
+  }
+  if (g.value(q)) return "";
+  return fmt::format("{} is not guaranteed; give its guaranteed value or drop its tolerance", checked_spec(q).key);
+}
+
 void check_tolerances(const Guarantee& g, MachineKind m, std::size_t points) {
   if (g.grade && m != MachineKind::pump) {
     refuse(fmt::format("tolerances.grade: the ISO 9906 acceptance grades ({}) are for pumps, and this is a {}; give "
@@ -66,24 +97,8 @@ void check_tolerances(const Guarantee& g, MachineKind m, std::size_t points) {
     const std::string_view key = checked_spec(q).key;
     if (g.value(q) && !may_guarantee(m, q)) refuse(fmt::format("{}: not a guarantee of a {}", key, machine_name(m)));
     if (!t) continue;
-    const bool flow = q == Checked::mass_flow || q == Checked::volume_flow;
-    if (flow && m == MachineKind::compressor) {
-      refuse(fmt::format("tolerances.{}: a compressor's guarantee is read at its flow, so the flow is not a checked "
-                         "quantity; check outlet.pressure or head.polytropic at the guaranteed flow",
-                         key));
-    }
-    if (flow && m == MachineKind::turbine && !g.flow_given()) {
-      refuse(fmt::format("tolerances.{}: the guarantee gives no flow to check the test's against; give its mass_flow",
-                         key));
-    }
-    if (flow && !(m == MachineKind::pump ? q == Checked::volume_flow : points == 1 && q == Checked::mass_flow)) {
-      refuse(fmt::format("tolerances.{}: a {}'s flow is checked as {}", key, machine_name(m),
-                         m == MachineKind::pump ? "volume_flow (the tolerance cross)"
-                                                : "mass_flow, for a single test point (the choked-nozzle law)"));
-    }
-    if (!flow && !g.value(q) && !(m == MachineKind::pump && q == Checked::head_height)) {
-      refuse(fmt::format("tolerances.{}: {} is not guaranteed; give its guaranteed value or drop its tolerance", key,
-                         key));
+    if (const std::string why = unused_tolerance(g, m, q, points); !why.empty()) {
+      refuse(fmt::format("tolerances.{}: {}", key, why));
     }
     if (t->min_percent && t->max_percent && *t->min_percent > *t->max_percent) {
       refuse(fmt::format("tolerances.{}: min {:+g} % lies above max {:+g} %", key, *t->min_percent, *t->max_percent));

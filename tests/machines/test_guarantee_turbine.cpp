@@ -94,6 +94,11 @@ TEST_CASE("turbine refusals: several points need the flow; another gas needs the
   tolerance.tolerance[static_cast<std::size_t>(Checked::mass_flow)] = machines::Tolerance{-2.0, 2.0};
   CHECK(std::string(test::error_of([&] { machines::judge(tolerance, std::span(two.data(), 1)); }).what()) ==
         "tolerances.mass_flow: the guarantee gives no flow to check the test's against; give its mass_flow");
+  Guarantee exhaust = g;
+  exhaust.value(Checked::outlet_pressure) = 1.4e5;
+  exhaust.tolerance[static_cast<std::size_t>(Checked::outlet_pressure)] = machines::Tolerance{-1.0, std::nullopt};
+  CHECK(std::string(test::error_of([&] { machines::judge(exhaust, std::span(two.data(), 1)); }).what()) ==
+        "tolerances.outlet.pressure: a turbine's outlet pressure is the guarantee's exhaust, not a checked quantity");
   // With the flow: two points at the same flow draw no curve.
   g.mass_flow = 3.8;
   const std::vector<TestPoint> same = {expander("E1", 8e5, 820.0, 1.5e5, 0.86, 4.0),
