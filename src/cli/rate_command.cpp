@@ -126,7 +126,9 @@ int run_rate(const RateOptions& options) {
     }
   }
   const std::string text = format_results(outcomes, tests, options);
-  const bool case_failed = report_cases(outcomes) | report_tests(tests);
+  const bool cases_failed = report_cases(outcomes);  // both report: each prints its messages
+  const bool tests_failed = report_tests(tests);
+  const bool case_failed = cases_failed || tests_failed;
   if (!file) {
     std::cout << text << std::flush;
   } else if (file_unusable) {
