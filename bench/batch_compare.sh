@@ -5,7 +5,7 @@
 #
 #   bench/batch_compare.sh [path/to/shaftwork] [rows]      (defaults: build/shaftwork, 1000000)
 #
-# The log is generated here (awk, fixed seed): inlet 15-30 degC at -20..+20 mbar gauge,
+# The log (bench/compressor_log.awk, awk, fixed seed): inlet 15-30 degC at -20..+20 mbar gauge,
 # outlet 6-8 barg, an outlet temperature from an isentropic efficiency of 0.78-0.84,
 # 5-6 t/h. shaftwork solves efficiency and power on NASA-polynomial air (inverse
 # entropy solve, polytropic efficiency from s°(T)) and writes 13 result columns; awk
@@ -13,27 +13,8 @@
 #   eta = T1 ((p2/p1)^((k-1)/k) - 1) / (T2 - T1),  P = m cp (T2 - T1) / eta_m.
 # Each tool reads the file and writes its CSV to a file in the same directory; the
 # time is wall-clock from start to exit, best of `repeats` runs.
-set -eu
-bin=${1:-build/shaftwork}
-rows=${2:-1000000}
+source "$(dirname "$0")/batch_log.bash"
 repeats=${REPEATS:-3}
-work=$(mktemp -d)
-trap 'rm -rf "$work"' EXIT
-
-awk -v rows="$rows" 'BEGIN {
-  srand(20260302)
-  print "id,inlet.pressure [barg],inlet.temperature [degC],outlet.pressure [barg],outlet.temperature [degC],mass_flow [t/h]"
-  for (i = 0; i < rows; i++) {
-    t1 = 15 + 15 * rand(); p1 = -0.02 + 0.04 * rand(); p2 = 6 + 2 * rand(); eta = 0.78 + 0.06 * rand()
-    T1 = t1 + 273.15; ratio = (p2 + 0.991) / (p1 + 0.991)
-    T2 = T1 + T1 * (exp(log(ratio) * 0.4 / 1.4) - 1) / eta
-    printf "%d,%.4f,%.2f,%.3f,%.2f,%.3f\n", i, p1, t1, p2, T2 - 273.15, 5 + rand()
-  }
-}' >"$work/log.csv"
-cat >"$work/template.json" <<'JSON'
-{ "id": "benchmark log", "machine": "compressor", "fluid": "air",
-  "site": { "barometric_pressure": "99.1 kPa" }, "mechanical_efficiency": 0.975 }
-JSON
 
 cat >"$work/closed_form.awk" <<'AWK'
 # Constant-cp air (k = 1.4, cp = 1005 J/(kg K)), barometer 99.1 kPa, eta_m 0.975.

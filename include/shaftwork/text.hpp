@@ -1,8 +1,11 @@
 // shaftwork/text.hpp — the small text helpers every layer uses, defined once.
 #pragma once
 
+#include <algorithm>
+#include <cstddef>
 #include <string>
 #include <string_view>
+#include <vector>
 
 namespace shaftwork {
 
@@ -42,6 +45,35 @@ inline std::string escape_control(std::string_view s) {
     }
   }
   return out;
+}
+
+// The candidate nearest to `key` by Levenshtein distance (insertions, deletions and
+// substitutions), if it is at most `max_edits` away: for "did you mean ...?" hints.
+// "" when none is that near; the first of equally near candidates.
+inline std::string_view nearest_of(std::string_view key, const std::vector<std::string_view>& candidates,
+                                   std::size_t max_edits = 2) {
+  std::string_view best;
+  std::size_t best_distance = max_edits + 1;
+  std::vector<std::size_t> row;
+  for (const std::string_view c : candidates) {
+    // One row of the distance table at a time.
+    row.resize(c.size() + 1);
+    for (std::size_t j = 0; j < row.size(); ++j) row[j] = j;
+    for (std::size_t i = 1; i <= key.size(); ++i) {
+      std::size_t diagonal = row[0];
+      row[0] = i;
+      for (std::size_t j = 1; j <= c.size(); ++j) {
+        const std::size_t up = row[j];
+        row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + (key[i - 1] == c[j - 1] ? 0 : 1)});
+        diagonal = up;
+      }
+    }
+    if (row.back() < best_distance) {
+      best_distance = row.back();
+      best = c;
+    }
+  }
+  return best;
 }
 
 }  // namespace shaftwork

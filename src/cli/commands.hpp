@@ -7,8 +7,9 @@
 namespace shaftwork::cli {
 
 // Exit statuses (the contract): every case rated; some case failed; the command
-// line or a whole file could not be used; every case rated but a guarantee not met (or,
-// for `check`, an expectation failed). The highest applicable wins in the order 2, 1, 3, 0.
+// line or a whole file could not be used; every case rated, but a guarantee not met (rate)
+// or a check failed (an expectation or a baseline key of `check`). The highest applicable
+// wins in the order 2, 1, 3, 0.
 inline constexpr int kExitOk = 0;
 inline constexpr int kExitCaseFailed = 1;
 inline constexpr int kExitUnusable = 2;
@@ -24,11 +25,14 @@ struct Subcommand {
 void install_rate(CLI::App& sub, int& exit_status);
 void install_state(CLI::App& sub, int& exit_status);
 void install_fluids(CLI::App& sub, int& exit_status);
+void install_check(CLI::App& sub, int& exit_status);
 
 inline constexpr Subcommand kSubcommands[] = {
     {"rate", "Rate every case in JSON case files, or every row of a CSV of test points with --case", install_rate},
     {"state", "Print the thermodynamic state of a fluid at a pressure and T, h or s", install_state},
     {"fluids", "List the named fluids, species and property models with their ranges", install_fluids},
+    {"check", "Rate case files and directories and compare with their expect blocks and a baseline (for CI)",
+     install_check},
 };
 
 }  // namespace shaftwork::cli

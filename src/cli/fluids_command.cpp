@@ -5,6 +5,7 @@
 #include <vector>
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 #include <nlohmann/json.hpp>
 
 #include "commands.hpp"
@@ -76,16 +77,11 @@ int run_fluids(const std::string& format, const std::vector<std::string>& specie
                                 {"temperature_range", {sp.intervals.front().t_low, sp.intervals.back().t_high}},
                                 {"source", sp.source}});
     }
-    doc["models"] = {
-        {{"name", "constant-cp"}, {"keys", "any two of cp, cv, k, R, molar_mass"}},
-        {{"name", "nasa-polynomial"}, {"keys", "species, or mixture with basis (mole or mass)"}},
-        {{"name", "peng-robinson"},
-         {"keys", "species, mixture with basis, or fluid (a named NASA gas); critical, interaction optional"}},
-        {{"name", "soave-redlich-kwong"},
-         {"keys", "species, mixture with basis, or fluid (a named NASA gas); critical, interaction optional"}},
-        {{"name", "iapws-if97"}, {"keys", "none"}},
-        {{"name", "incompressible"}, {"keys", "density, cp"}},
-    };
+    doc["models"] = nlohmann::ordered_json::array();
+    for (const io::FluidModelInfo& m : io::fluid_models()) {
+      const std::vector<std::string> keys(m.keys.begin() + 1, m.keys.end());  // without "model"
+      doc["models"].push_back({{"name", m.name}, {"keys", keys}, {"summary", m.summary}});
+    }
     add_cubic_data(doc);
     if (format == "json") {
       std::cout << doc.dump(2) << '\n';
@@ -109,7 +105,9 @@ int run_fluids(const std::string& format, const std::vector<std::string>& specie
     }
     std::cout << "\nModels (a case's \"fluid\" may be an object with one of these)\n";
     for (const auto& m : doc["models"]) {
-      std::cout << fmt::format("  {:<18}keys: {}\n", m["name"].get<std::string>(), m["keys"].get<std::string>());
+      const auto keys = m["keys"].get<std::vector<std::string>>();
+      std::cout << fmt::format("  {:<21}{}\n  {:<21}keys: {}\n", m["name"].get<std::string>(),
+                               m["summary"].get<std::string>(), "", keys.empty() ? "none" : fmt::format("{}", fmt::join(keys, ", ")));
     }
     print_cubic_data(doc);
     return kExitOk;

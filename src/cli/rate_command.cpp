@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <iostream>
 #include <iterator>
+#include <map>
 #include <memory>
 #include <optional>
 #include <sstream>
@@ -17,8 +18,11 @@
 #include "batch_command.hpp"
 #include "commands.hpp"
 #include "shaftwork/error.hpp"
+#include "shaftwork/io/uncertainty_input.hpp"
 #include "shaftwork/io/atomic_file.hpp"
+#include "shaftwork/io/case_reader.hpp"
 #include "shaftwork/io/case_runner.hpp"
+#include "shaftwork/io/guarantee_reader.hpp"
 #include "shaftwork/io/result_writer.hpp"
 #include "shaftwork/io/text_file.hpp"
 
@@ -40,61 +44,107 @@ struct RateOptions {
 };
 
 
-// Each case's warnings and, for a failed case, its error, on standard error (the results
-// keep them too). Returns whether a case failed.
-bool report_cases(const std::vector<io::CaseOutcome>& outcomes) {
-  bool case_failed = false;
-  for (const auto& o : outcomes) {
-    for (const auto& w : o.warnings) std::cerr << fmt::format("warning: case \"{}\": {}\n", o.id, w);
-    if (!o.ok()) {
-      case_failed = true;
-      std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
-    } else if (!o.guarantee_error.empty()) {
-      case_failed = true;
-      std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.guarantee_error);
+// Each case's warnings and, for a failed case or a guarantee that could not be judged, its
+// error, on standard error (the results keep them too).
+void report_case(const io::CaseOutcome& o) {
+  for (const auto& w : o.warnings) std::cerr << fmt::format("warning: case \"{}\": {}\n", o.id, w);
+  if (!o.ok()) {
+    std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
+  } else if (!o.guarantee_error.empty()) {
+    std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.guarantee_error);
+  }
+}
+
+// A file's test: its warnings and, when it could not be judged, its error, on standard error.
+void report_test(const io::TestOutcome& t) {
+  for (const auto& w : t.warnings) std::cerr << fmt::format("warning: {}: {}\n", t.origin, w);
+  if (!t.result) std::cerr << fmt::format("error: {}: {}\n", t.origin, t.error);
+}
+
+// What the cases and tests of a run came to, for the exit status (the contract: 2, 1, 3, 0).
+struct RunState {
+  bool file_unusable = false;
+  bool case_failed = false;       // a case not rated, or a guarantee not judged
+  bool guarantee_failed = false;  // a guarantee judged and not met
+  void add(const io::CaseOutcome& o) {
+    case_failed = case_failed || !o.ok() || !o.guarantee_error.empty();
+    guarantee_failed = guarantee_failed || o.guarantee_failed();
+  }
+  void add(const io::TestOutcome& t) {
+    case_failed = case_failed || !t.result;
+    guarantee_failed = guarantee_failed || t.failed();
+  }
+};
+
+io::ResultFormat result_format(const std::string& name) {
+  if (name == "json") return io::ResultFormat::json;
+  if (name == "jsonl") return io::ResultFormat::jsonl;
+  if (name == "csv") return io::ResultFormat::csv;
+  return io::ResultFormat::table;
+}
+
+// A file's text; standard input is read once and kept, as the CSV's header may need to know
+// what it holds before the cases are rated.
+class InputTexts {
+ public:
+  std::string text(const std::string& path) {
+    if (path != "-") return io::read_text_file(path);
+    if (!stdin_) stdin_ = io::read_text_file(path);
+    return *stdin_;
+  }
+
+ private:
+  std::optional<std::string> stdin_;
+};
+
+// The CSV's optional columns, decided before its header: the uncertainty columns when some
+// case of the files states an uncertainty, the guarantee columns when some case has a
+// guarantee of its own. A file that cannot be read or parsed is left to rate_files to report.
+void choose_csv_columns(const std::vector<std::string>& files, InputTexts& texts, io::FluidFactory& fluids,
+                        io::TableOptions& table) {
+  for (const auto& path : files) {
+    try {
+      const auto document = io::parse_json_strict(texts.text(path), path);
+      table.uncertainty_columns = table.uncertainty_columns || io::states_uncertainty(document);
+      io::add_case_guarantee_columns(document, path, fluids, table.guarantee_columns);
+    } catch (const Error&) {
     }
   }
-  return case_failed;
 }
 
-// Each file-level guarantee that could not be judged, on standard error. Returns whether one
-// could not be judged.
-bool report_tests(const std::vector<io::TestOutcome>& tests) {
-  bool failed = false;
-  for (const auto& t : tests) {
-    for (const auto& w : t.warnings) std::cerr << fmt::format("warning: {}: {}\n", t.origin, w);
-    if (!t.result) {
-      failed = true;
-      std::cerr << fmt::format("error: {}: {}\n", t.origin, t.error);
+// Rates the cases of each file as they come and writes each result at once: memory holds
+// one file's document, one result and, for a file's guarantee, its test points; the file's
+// test is judged and written after its cases.
+RunState rate_files(const RateOptions& options, io::FluidFactory& fluids, io::ResultStream& results,
+                    InputTexts& texts) {
+  RunState state;
+  io::CaseIdRegister ids;
+  for (const auto& path : options.files) {
+    const std::string origin = path == "-" ? "standard input" : path;
+    try {
+      const auto document = io::parse_json_strict(texts.text(path), origin);
+      const auto cases = io::case_objects(document, origin);
+      io::FileTest test(document, origin);
+      for (std::size_t i = 0; i < cases.size(); ++i) {
+        io::CaseOutcome o = io::rate_case(*cases[i], i, fluids, origin);
+        ids.check(o, i);
+        report_case(o);
+        state.add(o);
+        test.add(o);
+        results.add(o);
+      }
+      if (!test.active()) continue;
+      const io::TestOutcome t = test.finish(fluids);
+      report_test(t);
+      state.add(t);
+      results.add_test(t);
+    } catch (const Error& e) {
+      std::cerr << "error: " << e.what() << '\n';
+      state.file_unusable = true;
     }
   }
-  return failed;
-}
-
-// Exit 3 (the contract): every case rated, and a guarantee not met.
-bool guarantee_failed(const std::vector<io::CaseOutcome>& outcomes, const std::vector<io::TestOutcome>& tests) {
-  return std::any_of(outcomes.begin(), outcomes.end(), [](const io::CaseOutcome& o) { return o.guarantee_failed(); }) ||
-         std::any_of(tests.begin(), tests.end(), [](const io::TestOutcome& t) { return t.failed(); });
-}
-
-std::string format_results(const std::vector<io::CaseOutcome>& outcomes, const std::vector<io::TestOutcome>& tests,
-                           const RateOptions& options) {
-  const io::UnitSystem system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
-  std::ostringstream text;
-  if (options.format == "json") {
-    io::write_json(text, outcomes, tests);
-  } else if (options.format == "jsonl") {
-    for (const auto& o : outcomes) text << io::result_json(o).dump() << '\n';
-  } else if (options.format == "csv") {
-    io::write_csv(text, outcomes, system);
-  } else {
-    io::TableOptions table;
-    table.system = system;
-    table.system_forced = options.units_given;
-    table.show_origin = options.files.size() > 1;
-    io::write_table(text, outcomes, table, tests);
-  }
-  return text.str();
+  results.finish();
+  return state;
 }
 
 int run_rate(const RateOptions& options) {
@@ -110,43 +160,32 @@ int run_rate(const RateOptions& options) {
     std::cerr << "error: " << e.what() << '\n';
     return kExitUnusable;
   }
-  bool file_unusable = false;
-  std::vector<io::CaseOutcome> outcomes;
-  std::vector<io::TestOutcome> tests;  // the files' own guarantees
-  for (const auto& path : options.files) {
-    const std::string origin = path == "-" ? "standard input" : path;
-    try {
-      const auto document = io::parse_json_strict(io::read_text_file(path), origin);
-      auto rated = io::rate_file(document, origin, fluids);
-      for (auto& o : rated.cases) outcomes.push_back(std::move(o));
-      if (rated.test) tests.push_back(std::move(*rated.test));
-    } catch (const Error& e) {
-      std::cerr << "error: " << e.what() << '\n';
-      file_unusable = true;
-    }
-  }
-  const std::string text = format_results(outcomes, tests, options);
-  const bool cases_failed = report_cases(outcomes);  // both report: each prints its messages
-  const bool tests_failed = report_tests(tests);
-  const bool case_failed = cases_failed || tests_failed;
-  if (!file) {
-    std::cout << text << std::flush;
-  } else if (file_unusable) {
-    // Exit 2 leaves an existing output file as it was (the temporary file goes with `file`):
-    // the results of some inputs must not pass for the run's.
-    std::cerr << fmt::format("error: {}: not written, since an input could not be used\n", options.output);
-  } else {
-    try {
-      file->write(text);
+  io::TableOptions table;
+  table.system = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
+  table.system_forced = options.units_given;
+  table.show_origin = options.files.size() > 1;
+  InputTexts texts;
+  if (options.format == "csv") choose_csv_columns(options.files, texts, fluids, table);
+  io::SinkStream out(file ? static_cast<io::ByteSink&>(*file) : io::standard_output());
+  const auto results = io::make_result_stream(result_format(options.format), out, table);
+  RunState state;
+  try {
+    state = rate_files(options, fluids, *results, texts);
+    out.flush();
+    if (file && state.file_unusable) {
+      // Exit 2 leaves an existing output file as it was (the temporary file goes with `file`):
+      // the results of some inputs must not pass for the run's.
+      std::cerr << fmt::format("error: {}: not written, since an input could not be used\n", options.output);
+    } else if (file) {
       file->commit();
-    } catch (const Error& e) {
-      std::cerr << "error: " << e.what() << '\n';
-      return kExitUnusable;
     }
+  } catch (const Error& e) {
+    std::cerr << "error: " << e.what() << '\n';
+    return kExitUnusable;
   }
-  if (file_unusable) return kExitUnusable;
-  if (case_failed) return kExitCaseFailed;
-  return guarantee_failed(outcomes, tests) ? kExitGuaranteeFailed : kExitOk;
+  if (state.file_unusable) return kExitUnusable;
+  if (state.case_failed) return kExitCaseFailed;
+  return state.guarantee_failed ? kExitGuaranteeFailed : kExitOk;
 }
 
 // --jobs: a whole number of threads, at least 1. (CLI11's PositiveNumber answered 0 with the

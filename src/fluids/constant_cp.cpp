@@ -75,6 +75,7 @@ State ConstantCpGas::from_pt(double p, double T) const {
   st.cv = cp_ - R_;
   st.molar_mass = units::kGasConstant / R_;
   st.compressibility = 1.0;
+  st.expansivity = 1.0 / T;
   return st;
 }
 

@@ -69,6 +69,8 @@ State single_phase(const Point& pt, double p) {
   st.cv = pt.cv;
   st.molar_mass = if97::kMolarMass;
   st.compressibility = p / (pt.rho * if97::kR * pt.T);
+  st.expansivity = pt.alpha_v;
+  st.region = pt.region;
   return st;
 }
 
@@ -158,9 +160,12 @@ Point region3_solve(double p, Given given, double target, double T_low, double T
   double rho = 1.0 / v;
   const double T0 = T;
   // A root of the pair is the state sought only on the stable part of an isotherm and
-  // within the temperatures the caller allows (on the caller's side of Ts(p)).
+  // within the temperatures the caller allows (on the caller's side of Ts(p)). At the
+  // critical point (dp/drho)_T is zero and its rounding may come out negative (about -6e-7
+  // Pa m3/kg against R T = 3e5 there): the pair's Jacobian is regular all the same, so a
+  // slope that small counts as stable.
   auto acceptable = [&](const if97::detail::Region3Point& d) {
-    return d.dp_drho > 0 && d.point.T >= T_low && d.point.T <= T_high;
+    return d.dp_drho > -1e-9 * if97::kR * d.point.T && d.point.T >= T_low && d.point.T <= T_high;
   };
   if (std::isfinite(T) && std::isfinite(rho) && rho > 0) {
     for (int i = 0; i < 2 * kNewtonSteps; ++i) {
@@ -238,6 +243,8 @@ State wet(double p, const Saturation& sat, double x) {
   st.cv = 0;
   st.molar_mass = if97::kMolarMass;
   st.compressibility = p / (st.density * if97::kR * sat.T);
+  st.expansivity = 0;  // not defined for a wet state
+  st.region = p <= if97::kPsat623 ? 4 : 43;
   st.quality = x;
   return st;
 }
@@ -401,19 +408,35 @@ std::optional<double> IapwsIf97::saturation_temperature(double p) const {
   return if97::saturation_temperature(p);
 }
 
-State IapwsIf97::from_p_quality(double p, double quality) const {
+namespace {
+
+// The pressure of a wet state: 611.212677 Pa up to (not including) the critical pressure.
+void check_wet_pressure(double p) {
   detail::check_pressure(p, kName);
-  if (!(quality >= 0.0 && quality <= 1.0)) {
-    throw Error(ErrorKind::bad_input,
-                fmt::format("iapws-if97: quality must be between 0 and 1, got {:g}", quality));
-  }
   if (!(p >= if97::kPsatTmin && p < if97::kPc)) {
     throw Error(ErrorKind::out_of_range,
                 fmt::format("iapws-if97: a wet state needs a pressure from 611.213 Pa up to the "
                             "critical pressure 22.064 MPa, got {:g} MPa",
                             p / 1e6));
   }
+}
+
+}  // namespace
+
+State IapwsIf97::from_p_quality(double p, double quality) const {
+  detail::check_pressure(p, kName);
+  if (!(quality >= 0.0 && quality <= 1.0)) {
+    throw Error(ErrorKind::bad_input,
+                fmt::format("iapws-if97: quality must be between 0 and 1, got {:g}", quality));
+  }
+  check_wet_pressure(p);
   return wet(p, saturation_at(p), quality);
+}
+
+Saturated IapwsIf97::saturated(double p) const {
+  check_wet_pressure(p);
+  const Saturation sat = saturation_at(p);
+  return {wet(p, sat, 0.0), wet(p, sat, 1.0)};
 }
 
 double IapwsIf97::saturation_pressure(double T) {

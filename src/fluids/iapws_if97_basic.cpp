@@ -27,9 +27,11 @@ struct Gibbs {
   double g, gp, gpp, gt, gtt, gpt;
 };
 
-// Properties from a Gibbs function g(p,T)/(RT) = gamma(pi, tau) (IF97 Table 3).
-Point from_gibbs(const Gibbs& d, double p, double T) {
+// Properties from a Gibbs function g(p,T)/(RT) = gamma(pi, tau) (IF97 Table 3); alpha_v =
+// (1 - tau gamma_pitau / gamma_pi) / T.
+Point from_gibbs(const Gibbs& d, double p, double T, int region) {
   Point pt;
+  pt.region = region;
   pt.p = p;
   pt.T = T;
   const double RT = kR * T;
@@ -40,6 +42,7 @@ Point from_gibbs(const Gibbs& d, double p, double T) {
   const double x = d.gp - d.gpt;  // pi*(gamma_pi - tau*gamma_pitau)
   pt.cv = kR * (-d.gtt + x * x / d.gpp);
   pt.w = std::sqrt(RT * d.gp * d.gp / (x * x / d.gtt - d.gpp));
+  pt.alpha_v = (1.0 - d.gpt / d.gp) / T;
   return pt;
 }
 
@@ -60,14 +63,14 @@ Point region1(double p, double T) {
   d.gt = tau * w.sj / b;
   d.gtt = tau * tau * w.sjj / (b * b);
   d.gpt = -pi * tau * w.sij / (a * b);
-  return from_gibbs(d, p, T);
+  return from_gibbs(d, p, T, 1);
 }
 
 namespace {
 
 // Regions 2 and 5 share the form gamma = ln(pi) + gamma0(tau) + gamma_r(pi, tau - shift).
 template <const auto& Ideal, const auto& Residual>
-Point ideal_plus_residual(double p, double T, double pi, double tau, double shift) {
+Point ideal_plus_residual(double p, double T, double pi, double tau, double shift, int region) {
   const double b = tau - shift;
   const auto r = weighted_sums(Residual, powers_i<Residual>(pi), powers_j<Residual>(b));
   const auto o = weighted_sums(Ideal, powers_i<Ideal>(1.0), powers_j<Ideal>(tau));
@@ -78,19 +81,19 @@ Point ideal_plus_residual(double p, double T, double pi, double tau, double shif
   d.gt = o.sj + tau * r.sj / b;
   d.gtt = o.sjj + tau * tau * r.sjj / (b * b);
   d.gpt = tau * r.sij / b;
-  return from_gibbs(d, p, T);
+  return from_gibbs(d, p, T, region);
 }
 
 }  // namespace
 
 Point region2(double p, double T) {
   return ideal_plus_residual<coef::kRegion2Ideal, coef::kRegion2Residual>(p, T, p / 1e6, 540.0 / T,
-                                                                          0.5);
+                                                                          0.5, 2);
 }
 
 Point region5(double p, double T) {
   return ideal_plus_residual<coef::kRegion5Ideal, coef::kRegion5Residual>(p, T, p / 1e6,
-                                                                          1000.0 / T, 0.0);
+                                                                          1000.0 / T, 0.0, 5);
 }
 
 namespace detail {
@@ -113,6 +116,7 @@ Region3Point region3_with_derivatives(double rho, double T) {
   const double y = 2.0 * dphi_d + dphi_dd;
   Region3Point out;
   Point& pt = out.point;
+  pt.region = 3;
   pt.T = T;
   pt.rho = rho;
   pt.p = rho * RT * dphi_d;
@@ -121,6 +125,7 @@ Region3Point region3_with_derivatives(double rho, double T) {
   pt.cv = -kR * tphi_tt;
   pt.cp = kR * (-tphi_tt + x * x / y);
   pt.w = std::sqrt(RT * (y - x * x / tphi_tt));
+  pt.alpha_v = x / (y * T);  // (phi_delta - tau phi_deltatau) / (2 phi_delta + delta phi_deltadelta) / T
   out.dp_drho = RT * y;
   out.dp_dT = rho * kR * x;
   out.dh_dT = kR * (-tphi_tt + x);

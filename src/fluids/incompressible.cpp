@@ -41,6 +41,7 @@ State IncompressibleLiquid::from_pt(double p, double T) const {
   st.cv = c_;
   st.molar_mass = 0;       // not known to this model
   st.compressibility = 0;  // not known to this model
+  st.expansivity = 0;      // the density does not change with T
   return st;
 }
 

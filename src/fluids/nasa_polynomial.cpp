@@ -14,6 +14,7 @@
 #include "checks.hpp"
 #include "ideal_gas_mixture_data.hpp"
 #include "shaftwork/error.hpp"
+#include "shaftwork/fluids/compressibility_estimate.hpp"
 #include "shaftwork/fluids/ideal_gas_mixture.hpp"
 
 namespace shaftwork::fluids {
@@ -28,9 +29,11 @@ constexpr double kEndSlack = 1e-12;  // relative rounding allowance at the range
 }  // namespace
 
 struct NasaPolynomialGas::Impl {
-  explicit Impl(IdealGasMixture m) : mixture(std::move(m)), d(mixture.data()) {}
+  explicit Impl(IdealGasMixture m)
+      : mixture(std::move(m)), d(mixture.data()), z_estimate(CompressibilityEstimator::for_mixture(d.mole_fractions)) {}
   IdealGasMixture mixture;
   const IdealGasMixtureData& d;
+  std::optional<CompressibilityEstimator> z_estimate;  // for warnings where the ideal gas is off
 
   State state(double p, double T) const {
     const MixtureValues v = d.at(T);
@@ -45,6 +48,7 @@ struct NasaPolynomialGas::Impl {
     st.density = p / (R * T);
     st.molar_mass = d.molar_mass;
     st.compressibility = 1.0;
+    st.expansivity = 1.0 / T;
     return st;
   }
 };
@@ -102,6 +106,12 @@ Range NasaPolynomialGas::temperature_range() const { return impl_->d.range; }
 Range NasaPolynomialGas::pressure_range() const { return {1e-3, 1e9}; }
 
 std::optional<double> NasaPolynomialGas::ideal_gas_constant() const { return impl_->d.gas_constant; }
+
+std::optional<double> NasaPolynomialGas::estimated_compressibility(double p, double T) const {
+  if (!impl_->z_estimate) return std::nullopt;
+  const double z = impl_->z_estimate->z(p, T);
+  return std::isfinite(z) ? std::optional<double>(z) : std::nullopt;
+}
 
 std::vector<std::pair<std::string, double>> NasaPolynomialGas::mole_fractions() const {
   return impl_->d.mole_fractions;

@@ -13,6 +13,8 @@
 
 #include "batch_plan.hpp"
 #include "batch_rows.hpp"
+#include "shaftwork/io/case_runner.hpp"
+#include "shaftwork/io/uncertainty_input.hpp"
 #include "shaftwork/error.hpp"
 #include "worker_pool.hpp"
 
@@ -73,8 +75,16 @@ BatchTemplate read_batch_template(const nlohmann::json& document, const std::str
     refuse(fmt::format("{}: a template holds one case; this file holds {}", origin, cases.size()));
   }
   BatchTemplate templ;
+  // The file's uncertainties by key stand beside the case's own (which win).
+  const std::vector<StatedUncertainty> file_statements = file_uncertainty(document, origin);
   try {
     templ.input = read_case(*cases.front(), 0, fluids, origin);
+    std::vector<StatedUncertainty>& statements = templ.input.uncertainty_by_key;
+    for (const StatedUncertainty& s : file_statements) {
+      const auto stated = [&](const StatedUncertainty& own) { return own.input == s.input; };
+      if (std::none_of(statements.begin(), statements.end(), stated)) statements.push_back(s);
+    }
+    apply_uncertainty_by_key(templ.input, statements);
     // The template's guarantee, in its case or beside "cases": every row is judged against it.
     const std::string key(kGuaranteeKey);
     const nlohmann::json* g = cases.front()->contains(key) ? &(*cases.front())[key]

@@ -1,6 +1,7 @@
 #include "batch_plan.hpp"
 
 #include <algorithm>
+#include <cmath>
 #include <functional>
 #include <string_view>
 
@@ -9,6 +10,7 @@
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/case_reader.hpp"
 #include "shaftwork/io/result_writer.hpp"
+#include "shaftwork/io/uncertainty_input.hpp"
 #include "shaftwork/text.hpp"
 
 namespace shaftwork::io {
@@ -73,7 +75,7 @@ std::string unit_problem(std::string_view unit, Dimension d) {
 
 // The input column of a case key, or a refusal naming the column.
 InputColumn input_column(std::size_t i, const std::string& header, const InputSpec& spec, std::string_view unit,
-                         const std::function<void(const std::string&)>& fail) {
+                         const units::ParseContext& context, const std::function<void(const std::string&)>& fail) {
   InputColumn c;
   c.index = i;
   c.header = header;
@@ -94,9 +96,11 @@ InputColumn input_column(std::size_t i, const std::string& header, const InputSp
   const std::string problem = unit_problem(unit, c.dimension);
   if (!problem.empty()) fail(problem);
   const units::UnitInfo& u = *units::find_unit(unit);
-  c.scale = u.scale;
+  c.scale = units::effective_scale(u, context);  // a standard volume at the template's site conditions
   c.offset = u.offset;
   c.gauge = u.gauge;
+  c.vacuum = u.vacuum();
+  // A pump head as a height is held as energy per mass; an impeller's length is a length.
   c.factor = spec.input == Input::head && c.dimension == Dimension::length ? units::kStandardGravity : 1.0;
   if (spec.input == Input::barometric_pressure) {  // a gauge barometer is refused
     const std::string gauge = given_value_problem(spec.input, units::kStandardAtmosphere, unit);
@@ -121,30 +125,39 @@ std::string forms_of(const InputSpec& spec) {
 
 // The case key nearest to an unknown one, for a notice ("did you mean ...?").
 std::string_view nearest_key(std::string_view key) {
-  std::string_view best;
-  std::size_t best_distance = 3;  // suggest only keys at most two edits away
-  for (const InputSpec& s : machines::kInputs) {
-    // Levenshtein distance, one row at a time.
-    std::vector<std::size_t> row(s.key.size() + 1);
-    for (std::size_t j = 0; j < row.size(); ++j) row[j] = j;
-    for (std::size_t i = 1; i <= key.size(); ++i) {
-      std::size_t diagonal = row[0];
-      row[0] = i;
-      for (std::size_t j = 1; j <= s.key.size(); ++j) {
-        const std::size_t up = row[j];
-        row[j] = std::min({row[j] + 1, row[j - 1] + 1, diagonal + (key[i - 1] == s.key[j - 1] ? 0 : 1)});
-        diagonal = up;
-      }
-    }
-    if (row.back() < best_distance) {
-      best_distance = row.back();
-      best = s.key;
-    }
-  }
-  return best;
+  std::vector<std::string_view> keys;
+  for (const InputSpec& s : machines::kInputs) keys.push_back(s.key);
+  return nearest_of(key, keys);
 }
 
-void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_name) {
+constexpr std::string_view kUncertaintyPrefix = "uncertainty.";
+
+// An uncertainty column "uncertainty.<case key> [unit]" (or "[%]"), or a refusal naming it.
+UncertaintyColumn uncertainty_column(std::size_t i, const std::string& header, const HeaderCell& cell,
+                                     const units::ParseContext& context,
+                                     const std::function<void(const std::string&)>& fail) {
+  const std::string_view key = cell.key.substr(kUncertaintyPrefix.size());
+  const InputSpec* spec = find_case_input(key);
+  if (!spec) fail(fmt::format("\"{}\" names no case value, such as outlet.temperature", key));
+  if (cell.brackets_malformed) fail("write the unit in square brackets after the key, as in \"uncertainty.power [%]\"");
+  UncertaintyColumn u;
+  u.index = i;
+  u.header = header;
+  u.input = spec->input;
+  u.relative = cell.unit == "%";
+  if (!u.relative && cell.unit.empty() && spec->dimension != Dimension::fraction) {
+    fail(fmt::format("an uncertainty needs its unit in square brackets, as in \"{} [{}]\", or \"[%]\" of the reading",
+                     cell.key, example_unit(spec->dimension)));
+  }
+  if (!u.relative && !cell.unit.empty()) {
+    const InputColumn as_value = input_column(i, header, *spec, cell.unit, context, fail);  // the unit's checks
+    u.scale = std::fabs(as_value.scale) * as_value.factor;
+  }
+  return u;
+}
+
+void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_name,
+                 const units::ParseContext& context) {
   const std::vector<std::string>& header = plan.header;
   std::vector<std::pair<const InputSpec*, std::size_t>> seen;  // the case value of each column
   for (std::size_t i = 0; i < header.size(); ++i) {
@@ -161,6 +174,15 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
     if (cell.key == kMachineKey || cell.key == kFluidKey) {
       fail("machine and fluid come from the template (--case): they are the same for every row");
     }
+    if (cell.key.substr(0, kUncertaintyPrefix.size()) == kUncertaintyPrefix) {
+      UncertaintyColumn u = uncertainty_column(i, header[i], cell, context, fail);
+      for (const UncertaintyColumn& other : plan.uncertainty_columns) {
+        if (other.input != u.input) continue;
+        fail(fmt::format("column {} \"{}\" gives it already; keep one", other.index + 1, other.header));
+      }
+      plan.uncertainty_columns.push_back(std::move(u));
+      continue;
+    }
     const InputSpec* spec = find_case_input(cell.key);
     if (cell.key == kIdKey || cell.key == kNoteKey) {
       if (!cell.unit.empty()) fail(fmt::format("{} is text and takes no unit", cell.key));
@@ -174,6 +196,9 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
                                          near.empty() ? "" : fmt::format(" (did you mean {}?)", near)));
       continue;
     }
+    if (!spec->field && spec->input != Input::barometric_pressure) {
+      fail(fmt::format("{} comes from the template (--case): it is the same for every row", spec->key));
+    }
     if (cell.brackets_malformed) fail("write the unit in square brackets after the key, as in \"inlet.pressure [barg]\"");
     for (const auto& [other_spec, other] : seen) {
       if (other_spec == spec || (spec->gives && other_spec->gives == spec->gives)) {
@@ -182,7 +207,7 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
       }
     }
     seen.emplace_back(spec, i);
-    InputColumn c = input_column(i, header[i], *spec, cell.unit, fail);
+    InputColumn c = input_column(i, header[i], *spec, cell.unit, context, fail);
     if (c.input == Input::barometric_pressure) plan.has_barometer_column = true;
     plan.inputs.push_back(std::move(c));
   }
@@ -206,12 +231,17 @@ bool column_gives(const Plan& plan, std::string_view key) {
                      [key](const InputColumn& c) { return machines::key_of(c.input) == key; });
 }
 
+// Whether the template or a column gives this case value.
+bool batch_gives(const Plan& plan, const BatchTemplate& templ, Input input) {
+  return templ.input.find(input) || column_gives(plan, machines::key_of(input));
+}
+
 // The default result columns: those that batches write, apply to this machine and
 // fluid, and do not repeat an input column (its key is the same).
 std::vector<const ResultKey*> default_outputs(const Plan& plan, const BatchTemplate& templ) {
   const bool two_phase = templ.input.fluid->saturation_temperature(units::kStandardAtmosphere).has_value();
   const bool pump = templ.input.machine == machines::MachineKind::pump;
-  const auto given = [&](Input input) { return templ.input.find(input) || column_gives(plan, machines::key_of(input)); };
+  const auto given = [&](Input input) { return batch_gives(plan, templ, input); };
   const bool flow = given(Input::mass_flow) || given(Input::volume_flow) || given(Input::standard_volume_flow);
   const bool power = given(Input::power);
   const bool efficiency = given(Input::efficiency_isentropic) || given(Input::efficiency_polytropic);
@@ -221,6 +251,7 @@ std::vector<const ResultKey*> default_outputs(const Plan& plan, const BatchTempl
     if ((k.applies == Applies::two_phase && !two_phase) || (k.applies == Applies::pump && !pump)) continue;
     if (k.applies == Applies::speed && !given(Input::speed)) continue;
     if (k.applies == Applies::impeller && !(given(Input::speed) && given(Input::impeller_tip_diameter))) continue;
+    if (k.applies == Applies::real_gas && templ.input.fluid->fluid_kind() != fluids::FluidKind::real_gas) continue;
     if (k.key.rfind("power_balance.", 0) == 0 && !(flow && power)) continue;
     if (k.key.rfind("efficiency_check.", 0) == 0 && !efficiency) continue;
     out.push_back(&k);
@@ -239,6 +270,26 @@ std::vector<const ResultKey*> chosen_outputs(const std::vector<std::string>& key
   return out;
 }
 
+// Refuses an uncertainty that no value of the rows has (neither a column nor the template
+// gives its key); notes whether the batch states any.
+void plan_uncertainty(Plan& plan, const BatchTemplate& templ, std::size_t header_line, const std::string& points_name) {
+  const auto given = [&](Input input) { return batch_gives(plan, templ, input); };
+  for (const UncertaintyColumn& u : plan.uncertainty_columns) {
+    if (given(u.input)) continue;
+    refuse(fmt::format("{}: line {}, column {} \"{}\": neither a column nor the template gives {}", points_name,
+                       header_line, u.index + 1, u.header, machines::key_of(u.input)));
+  }
+  for (const StatedUncertainty& s : templ.input.uncertainty_by_key) {
+    if (given(s.input)) continue;
+    refuse(fmt::format("{}: {}.{}: neither the template nor a column of {} gives {}, so there is no reading to state "
+                       "an uncertainty for",
+                       templ.input.origin, kUncertaintyKey, machines::key_of(s.input), points_name,
+                       machines::key_of(s.input)));
+  }
+  plan.uncertainty = !plan.uncertainty_columns.empty() || !templ.input.uncertainty_by_key.empty() ||
+                     has_uncertainty(templ.input);
+}
+
 void plan_outputs(Plan& plan, const BatchTemplate& templ, const BatchOptions& options) {
   const std::vector<const ResultKey*> keys =
       options.columns.empty() ? default_outputs(plan, templ) : chosen_outputs(options.columns);
@@ -250,18 +301,24 @@ void plan_outputs(Plan& plan, const BatchTemplate& templ, const BatchOptions& op
   }
   if (!plan.header.empty()) line += ',';
   line += plan.solved_for_column ? "status,error,solved_for" : "status,error";
+  const auto header_of = [&](std::string_view prefix, const ResultKey* k) {
+    const std::string_view unit = column_unit(k->dimension, options.units);
+    line += ',';
+    line += csv_field(unit.empty() ? fmt::format("{}{}", prefix, k->key)
+                                   : fmt::format("{}{} [{}]", prefix, k->key, unit));
+  };
   for (const ResultKey* k : keys) {
     OutputColumn out{k};
-    const std::string_view unit = column_unit(k->dimension, options.units);
-    if (!unit.empty()) {
+    if (const std::string_view unit = column_unit(k->dimension, options.units); !unit.empty()) {
       const units::UnitInfo& u = *units::find_unit(unit);
       out.scale = u.scale;
       out.offset = u.offset;
-      line += fmt::format(",{}", csv_field(fmt::format("{} [{}]", k->key, unit)));
-    } else {
-      line += fmt::format(",{}", k->key);
     }
+    header_of("", k);
     plan.outputs.push_back(out);
+  }
+  if (plan.uncertainty) {
+    for (const ResultKey* k : keys) header_of(kUncertaintyPrefix, k);
   }
   if (templ.guarantee) {
     plan.guarantee = guarantee_columns(*templ.guarantee, templ.input.machine);
@@ -276,7 +333,8 @@ Plan make_plan(std::vector<std::string> header, std::size_t header_line, const s
                const BatchTemplate& templ, const BatchOptions& options) {
   Plan plan;
   plan.header = std::move(header);
-  plan_inputs(plan, header_line, points_name);
+  plan_inputs(plan, header_line, points_name, templ.input.context());
+  plan_uncertainty(plan, templ, header_line, points_name);
   plan_outputs(plan, templ, options);
   return plan;
 }

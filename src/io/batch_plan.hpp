@@ -24,6 +24,17 @@ struct InputColumn {
   std::string unit;  // as written in the brackets, "" for none
   double scale = 1, offset = 0, factor = 1;
   bool gauge = false;
+  bool vacuum = false;  // a reading below the barometer (inHgV): never negative
+};
+
+// A column that states the uncertainty of a case value, "uncertainty.outlet.temperature [K]":
+// U = scale * cell (SI, a difference), or with "[%]" cell / 100 of the row's reading.
+struct UncertaintyColumn {
+  std::size_t index = 0;
+  std::string header;
+  machines::Input input = machines::Input::inlet_pressure;
+  bool relative = false;
+  double scale = 1;  // SI per unit of the cell (g for a head in m)
 };
 
 // A result column: display = (SI - offset) / scale.
@@ -38,6 +49,10 @@ struct Plan {
   std::optional<std::size_t> id_index;
   bool has_barometer_column = false;
   std::vector<OutputColumn> outputs;
+  std::vector<UncertaintyColumn> uncertainty_columns;
+  // The batch states uncertainties (columns or template): "uncertainty.<key> [unit]"
+  // columns follow the result columns.
+  bool uncertainty = false;
   bool solved_for_column = true;     // the default columns only
   std::optional<GuaranteeColumns> guarantee;  // the verdict columns, when the template has a guarantee
   std::string output_header;         // the whole csv header line, with its line end

@@ -9,8 +9,10 @@
 #include "cell_number.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/case_reader.hpp"
+#include "shaftwork/io/guarantee_reader.hpp"
 #include "shaftwork/io/number_format.hpp"
 #include "shaftwork/io/result_writer.hpp"
+#include "shaftwork/io/uncertainty_input.hpp"
 #include "shaftwork/text.hpp"
 
 namespace shaftwork::io {
@@ -35,7 +37,7 @@ bool overridden(const Plan& plan, Input input) {
 CaseInput row_shape(const Plan& plan, const CaseInput& templ) {
   CaseInput shape = templ;
   std::erase_if(shape.given, [&](const GivenValue& g) { return overridden(plan, g.input); });
-  for (const InputColumn& c : plan.inputs) shape.given.push_back(GivenValue{c.input, 0, c.gauge, "", c.unit});
+  for (const InputColumn& c : plan.inputs) shape.given.push_back(GivenValue{c.input, 0, c.gauge, "", c.unit, {}});
   if (plan.has_barometer_column) {
     for (GivenValue& g : shape.given) {
       if (g.on_barometer) g.unit.clear();  // messages show absolute kPa
@@ -59,6 +61,40 @@ bool within_domain(Dimension d, double si) {
   }
 }
 
+// The template's statement for a column's key: on its own value of that key (which the
+// column replaces), else by key.
+std::optional<StatedUncertainty> template_statement(const CaseInput& templ, Input input) {
+  if (const GivenValue* g = templ.find(input); g && g->uncertainty) return g->uncertainty;
+  for (const StatedUncertainty& s : templ.uncertainty_by_key) {
+    if (s.input == input) return s;
+  }
+  return std::nullopt;
+}
+
+const UncertaintyColumn* uncertainty_column_of(const Plan& plan, Input input) {
+  for (const UncertaintyColumn& u : plan.uncertainty_columns) {
+    if (u.input == input) return &u;
+  }
+  return nullptr;
+}
+
+// The values of the rows that may carry an uncertainty, and the readings that move with the
+// barometer.
+void plan_row_uncertainty(const Plan& plan, const CaseInput& templ, BatchShared& shared) {
+  for (const InputColumn& c : plan.inputs) {
+    UncertainValue v{c.input, uncertainty_column_of(plan, c.input), template_statement(templ, c.input), true, 0};
+    if (v.column || v.statement) shared.uncertain.push_back(v);
+    if (c.gauge) shared.barometer_moves.add_barometer_move(c.input);
+  }
+  for (const GivenValue& g : templ.given) {
+    if (overridden(plan, g.input)) continue;
+    UncertainValue v{g.input, uncertainty_column_of(plan, g.input), g.uncertainty, false,
+                     reading_magnitude(g, templ.barometer())};
+    if (v.column || v.statement) shared.uncertain.push_back(v);
+    if (g.on_barometer) shared.barometer_moves.add_barometer_move(g.input);
+  }
+}
+
 }  // namespace
 
 BatchShared::BatchShared(const Plan& p, const BatchTemplate& t, const BatchOptions& o, const std::string& name)
@@ -66,6 +102,10 @@ BatchShared::BatchShared(const Plan& p, const BatchTemplate& t, const BatchOptio
   base = to_rating_input(row_shape(plan, templ.input));
   for (const InputColumn& c : plan.inputs) {
     if (const auto field = machines::spec(c.input).field) base.*field = std::nullopt;
+    if (c.input != Input::standard_volume_flow) continue;
+    if (const auto reference = units::standard_reference(*units::find_unit(c.unit), templ.input.context())) {
+      standard_reference = units::describe(*reference);
+    }
   }
   bool gauge = std::any_of(plan.inputs.begin(), plan.inputs.end(), [](const InputColumn& c) { return c.gauge; });
   for (const GivenValue& g : templ.input.given) {
@@ -79,9 +119,26 @@ BatchShared::BatchShared(const Plan& p, const BatchTemplate& t, const BatchOptio
     warnings.emplace_back(kDefaultBarometerWarning);
   }
   for (const std::string& w : warnings) warnings_joined += (warnings_joined.empty() ? "" : "; ") + w;
+  if (plan.uncertainty) plan_row_uncertainty(plan, templ.input, *this);
 }
 
-RowRater::RowRater(const BatchShared& shared) : shared_(shared), plan_(shared.plan), input_(shared.base) {}
+namespace {
+
+// The propagation a row needs: every key with contributions for jsonl; the csv's result
+// columns alone otherwise.
+UncertaintyPropagator propagator_for(const BatchShared& shared) {
+  if (shared.options.format == BatchFormat::jsonl) return UncertaintyPropagator();
+  std::vector<std::size_t> keys;
+  for (const OutputColumn& o : shared.plan.outputs) {
+    keys.push_back(static_cast<std::size_t>(o.key - result_keys().data()));
+  }
+  return UncertaintyPropagator(std::move(keys));
+}
+
+}  // namespace
+
+RowRater::RowRater(const BatchShared& shared)
+    : shared_(shared), plan_(shared.plan), input_(shared.base), propagator_(propagator_for(shared)) {}
 
 void RowRater::rate_chunk(CsvChunk& chunk, OutputBuffer& out, RowCounts& counts) {
   CsvRecordParser parser(chunk.text, chunk.first_line);
@@ -99,6 +156,7 @@ void RowRater::judge_guarantee(std::size_t line, RowCounts& counts) {
   point.id = id_.empty() ? fmt::format("line {}", line) : std::string(id_);
   point.input = input_;
   point.rating = rating_;
+  if (rated_uncertainty_) point.uncertainty = uncertainty_by_result_key(uncertainty_);
   try {
     guarantee_ = machines::judge(*shared_.templ.guarantee, std::span(&point, 1));
     if (guarantee_->verdict == machines::Verdict::fail) ++counts.guarantees_failed;
@@ -124,6 +182,7 @@ bool RowRater::rate_record(OutputBuffer& out, RowCounts& counts) {
     cell_error_ = !apply_cells(line);
   }
   bool rated = false;
+  rated_uncertainty_ = false;
   if (error_.empty()) {
     try {
       rating_ = machines::rate(input_);
@@ -131,6 +190,10 @@ bool RowRater::rate_record(OutputBuffer& out, RowCounts& counts) {
     } catch (const Error& e) {
       error_ = fmt::format("line {}: {}", line, e.what());
     }
+  }
+  if (rated && plan_.uncertainty && sources_.count > 0) {
+    propagator_.propagate(input_, sources_, rating_, uncertainty_);
+    rated_uncertainty_ = true;
   }
   if (rated && shared_.templ.guarantee) judge_guarantee(line, counts);
   if (shared_.options.format == BatchFormat::jsonl) {
@@ -155,6 +218,28 @@ bool RowRater::apply_cells(std::size_t line) {
       input_.*machines::spec(input).field = shared_.templ.input.find(input)->si + shift;
     }
   }
+  return !plan_.uncertainty || apply_uncertainties(line);
+}
+
+// The row's uncertainties into sources_; false with error_ set at a bad uncertainty cell.
+bool RowRater::apply_uncertainties(std::size_t line) {
+  sources_ = shared_.barometer_moves;
+  sources_.barometer = barometer_;
+  for (const UncertainValue& v : shared_.uncertain) {
+    const double reading = v.from_row ? readings_[static_cast<std::size_t>(v.input)] : v.template_reading;
+    const std::string_view cell = v.column ? trim(record_.fields[v.column->index]) : std::string_view();
+    if (cell.empty()) {
+      if (v.statement) sources_.add(v.input, expanded_of(*v.statement, reading));
+      continue;
+    }
+    double x = 0;
+    if (const std::string_view problem = parse_cell_number(cell, x); !problem.empty() || x < 0) {
+      error_ = fmt::format("line {}, column \"{}\": \"{}\"{}", line, v.column->header, cell,
+                           problem.empty() ? ": an uncertainty cannot be negative" : " is not a number");
+      return false;
+    }
+    sources_.add(v.input, v.column->relative ? x / 100 * reading : x * v.column->scale);
+  }
   return true;
 }
 
@@ -174,10 +259,11 @@ bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t lin
     return false;
   }
   double si = c.scale * x + c.offset + (c.gauge ? barometer_ : 0.0);
-  if (!c.unit.empty() && !within_domain(c.dimension, si)) {
+  if (!c.unit.empty() && (!within_domain(c.dimension, si) || (c.vacuum && x < 0))) {
     error_ = fmt::format("line {}, column \"{}\": {}", line, c.header, domain_problem(c, cell));
     return false;
   }
+  readings_[static_cast<std::size_t>(c.input)] = std::fabs(c.scale * x) * c.factor;
   si = si * c.factor + 0.0;  // as units::parse: no -0.0
   if (const std::string problem = given_value_problem(c.input, si, c.unit); !problem.empty()) {
     error_ = fmt::format("line {}, column \"{}\": {}", line, c.header, problem);
@@ -194,7 +280,7 @@ bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t lin
 // Why a converted cell is out of its dimension's domain, in the units layer's words.
 std::string RowRater::domain_problem(const InputColumn& c, std::string_view cell) const {
   try {
-    units::ParseContext context;
+    units::ParseContext context = shared_.templ.input.context();
     context.barometric_pressure = barometer_;
     units::ParseNotes notes;
     units::parse(fmt::format("{} {}", cell, c.unit), c.dimension, context, notes);
@@ -233,6 +319,7 @@ void RowRater::write_csv_row(OutputBuffer& out, bool rated) {
     if (v && std::isfinite(*v)) p = format_significant(p, (*v - o.offset) / o.scale, kSignificantDigits);
   }
   out.commit(p);
+  if (plan_.uncertainty) write_uncertainty_cells(out);
   if (plan_.guarantee) {
     out.append(plan_.guarantee->cells(rated && guarantee_ ? &*guarantee_ : nullptr, shared_.options.units,
                                       rated ? guarantee_error_ : std::string()));
@@ -242,14 +329,31 @@ void RowRater::write_csv_row(OutputBuffer& out, bool rated) {
   out.append("\r\n");
 }
 
+// U of each result column in its unit (a difference); empty cells for a row without.
+void RowRater::write_uncertainty_cells(OutputBuffer& out) {
+  char* p = out.room(plan_.outputs.size() * (kMaxNumberChars + 1));
+  for (const OutputColumn& o : plan_.outputs) {
+    *p++ = ',';
+    if (!rated_uncertainty_) continue;
+    const auto k = static_cast<std::size_t>(o.key - result_keys().data());
+    const std::optional<double> u = uncertainty_.expanded[k];
+    if (u) p = format_significant(p, *u / std::fabs(o.scale), kSignificantDigits);
+  }
+  out.commit(p);
+}
+
 void RowRater::append_warnings(OutputBuffer& out, bool rated) {
   if (cell_error_) return;
-  if (!rated || rating_.warnings.empty()) {
+  const bool uncertainty_warnings = rated_uncertainty_ && !uncertainty_.warnings.empty();
+  if (!rated || (rating_.warnings.empty() && !uncertainty_warnings)) {
     out.append_csv_field(shared_.warnings_joined);
     return;
   }
   std::string joined = shared_.warnings_joined;
   for (const auto& w : rating_.warnings) joined += (joined.empty() ? "" : "; ") + w;
+  if (uncertainty_warnings) {
+    for (const auto& w : uncertainty_.warnings) joined += (joined.empty() ? "" : "; ") + w;
+  }
   out.append_csv_field(joined);
 }
 
@@ -263,13 +367,18 @@ void RowRater::write_jsonl(OutputBuffer& out, bool rated, std::size_t line) {
     std::erase_if(input.given, [&](const GivenValue& g) { return overridden(plan_, g.input); });
     for (const InputColumn& c : plan_.inputs) {
       const std::string cell(trim(record_.fields[c.index]));
-      input.given.push_back({c.input, 0, c.gauge, c.unit.empty() ? cell : cell + " " + c.unit, c.unit});
+      input.given.push_back({c.input, 0, c.gauge, c.unit.empty() ? cell : cell + " " + c.unit, c.unit, {}});
     }
+    if (!shared_.standard_reference.empty()) input.standard_reference = shared_.standard_reference;
     std::stable_sort(input.given.begin(), input.given.end(),
                      [](const GivenValue& a, const GivenValue& b) { return a.input < b.input; });
     o.input = std::move(input);
     o.warnings.insert(o.warnings.end(), rating_.warnings.begin(), rating_.warnings.end());
     o.rating = rating_;
+    if (rated_uncertainty_) {
+      o.uncertainty = uncertainty_;
+      o.warnings.insert(o.warnings.end(), uncertainty_.warnings.begin(), uncertainty_.warnings.end());
+    }
     if (shared_.templ.guarantee) {
       o.guarantee = guarantee_;
       o.guarantee_error = guarantee_error_;

@@ -70,4 +70,46 @@ void FdSink::write(std::string_view bytes) {
   }
 }
 
+ByteSink& standard_output() {
+  static FdSink out(STDOUT_FILENO, "standard output");
+  return out;
+}
+
+SinkStream::Buffer::Buffer(ByteSink& sink) : sink_(sink), data_(64 * 1024, '\0') {
+  setp(data_.data(), data_.data() + data_.size());
+}
+
+void SinkStream::Buffer::drain() {
+  const std::size_t n = static_cast<std::size_t>(pptr() - pbase());
+  setp(data_.data(), data_.data() + data_.size());  // emptied even when the sink throws
+  if (n) sink_.write(std::string_view(data_.data(), n));
+}
+
+int SinkStream::Buffer::sync() {
+  drain();
+  return 0;
+}
+
+SinkStream::Buffer::int_type SinkStream::Buffer::overflow(int_type c) {
+  drain();
+  if (!traits_type::eq_int_type(c, traits_type::eof())) {
+    *pptr() = traits_type::to_char_type(c);
+    pbump(1);
+  }
+  return traits_type::not_eof(c);
+}
+
+SinkStream::SinkStream(ByteSink& sink) : std::ostream(nullptr), buffer_(sink) {
+  rdbuf(&buffer_);
+  exceptions(std::ios::badbit);  // the sink's Error comes out of the operation that met it
+}
+
+SinkStream::~SinkStream() {
+  try {
+    buffer_.pubsync();
+  } catch (...) {
+    // A destructor must not throw; callers that care flush() first.
+  }
+}
+
 }  // namespace shaftwork::io

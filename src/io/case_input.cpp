@@ -23,6 +23,15 @@ double CaseInput::barometer() const {
   return b ? b->si : units::kStandardAtmosphere;
 }
 
+units::ParseContext CaseInput::context() const {
+  units::ParseContext context;
+  if (const GivenValue* b = find(Input::barometric_pressure)) context.barometric_pressure = b->si;
+  const GivenValue* p = find(Input::standard_pressure);
+  const GivenValue* T = find(Input::standard_temperature);
+  if (p && T) context.standard_conditions = units::StandardConditions{p->si, T->si};
+  return context;
+}
+
 std::string CaseInput::unit_used_for(units::Dimension d) const {
   for (const GivenValue& g : given) {
     if (g.unit.empty() || g.input == Input::barometric_pressure) continue;

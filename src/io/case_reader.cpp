@@ -7,6 +7,7 @@
 
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/json_quantity.hpp"
+#include "shaftwork/io/uncertainty_input.hpp"
 
 namespace shaftwork::io {
 namespace {
@@ -19,34 +20,35 @@ using units::Dimension;
 [[noreturn]] void refuse(const std::string& message) { throw Error(ErrorKind::bad_input, message); }
 
 // Keys of a case that are not values of kInputs.
-constexpr std::string_view kOtherKeys[] = {kIdKey, kMachineKey, kFluidKey, kNoteKey, kGuaranteeKey};
+constexpr std::string_view kOtherKeys[] = {kIdKey,          kMachineKey, kFluidKey, kNoteKey, kUncertaintyKey,
+                                           kExpectKey,      kGuaranteeKey};
 
-// The first segment of a dotted key ("inlet" of "inlet.pressure"), and the rest.
+// The first segment of a dotted key ("inlet" of "inlet.pressure").
 std::string_view head_of(std::string_view key) { return key.substr(0, key.find('.')); }
-std::string_view tail_of(std::string_view key) {
-  const auto dot = key.find('.');
-  return dot == std::string_view::npos ? std::string_view() : key.substr(dot + 1);
+
+// True when some case key lies below `prefix` ("site" for "site.barometric_pressure").
+bool is_section(const std::string& prefix) {
+  return std::any_of(machines::kInputs.begin(), machines::kInputs.end(), [&](const InputSpec& s) {
+    return s.key.size() > prefix.size() && s.key.substr(0, prefix.size()) == prefix && s.key[prefix.size()] == '.';
+  });
 }
 
-// Warns of every key that no row of kInputs (and no other case key) names: a misspelt
-// key must never be silently ignored. Objects are the dotted keys' first segments.
-void warn_unknown_keys(const json& c, std::vector<std::string>& warnings) {
-  for (const auto& item : c.items()) {
-    const std::string& key = item.key();
-    bool known = std::find(std::begin(kOtherKeys), std::end(kOtherKeys), key) != std::end(kOtherKeys);
-    bool is_section = false;
-    for (const InputSpec& s : machines::kInputs) {
-      known = known || head_of(s.key) == key;
-      is_section = is_section || (head_of(s.key) == key && !tail_of(s.key).empty());
-    }
-    if (!known) {
-      warnings.push_back(fmt::format("unknown key \"{}\" ignored", key));
-      continue;
-    }
-    if (!is_section || !item.value().is_object()) continue;
-    for (const auto& sub : item.value().items()) {
-      const std::string dotted = key + "." + sub.key();
-      if (!machines::find_input(dotted)) warnings.push_back(fmt::format("unknown key \"{}\" ignored", dotted));
+// {"value": ..., "uncertainty": ...}: one value ("efficiency" as a bare value), not a section.
+bool is_measured(const json& v) { return v.is_object() && v.contains("value"); }
+
+// Warns of every key of `object` (at dotted path `path`, "" at the top) that no row of
+// kInputs names, nor a section above one, nor (at the top) another case key: a misspelt
+// key must never be silently ignored.
+void warn_unknown_keys(const json& object, const std::string& path, std::vector<std::string>& warnings) {
+  for (const auto& item : object.items()) {
+    const std::string dotted = path.empty() ? item.key() : path + "." + item.key();
+    const bool other = path.empty() && std::find(std::begin(kOtherKeys), std::end(kOtherKeys), dotted) !=
+                                           std::end(kOtherKeys);
+    if (other || machines::find_input(dotted)) continue;
+    if (!is_section(dotted)) {
+      warnings.push_back(fmt::format("unknown key \"{}\" ignored", dotted));
+    } else if (item.value().is_object() && !is_measured(item.value())) {
+      warn_unknown_keys(item.value(), dotted, warnings);
     }
   }
 }
@@ -67,32 +69,46 @@ machines::MachineKind read_machine(const json& c, std::string& written) {
 // The JSON value at a dotted key, or nullptr. An object on the way that is not an object
 // is an error; "efficiency" as a bare value stands for "efficiency.isentropic".
 const json* value_at(const json& c, const InputSpec& s) {
-  const std::string head(head_of(s.key));
-  if (!c.contains(head) || c[head].is_null()) return nullptr;
-  const json& first = c[head];
-  const std::string_view tail = tail_of(s.key);
-  if (tail.empty()) return &first;
-  if (!first.is_object()) {
-    if (s.input == Input::efficiency_isentropic) return &first;  // "efficiency": 0.82
-    if (s.input == Input::efficiency_polytropic) return nullptr;
-    refuse(fmt::format("{}: expected an object, got {}", head, first.type_name()));
+  const json* at = &c;
+  std::string_view rest = s.key;
+  std::string walked;
+  for (auto dot = rest.find('.'); dot != std::string_view::npos; dot = rest.find('.')) {
+    const std::string name(rest.substr(0, dot));
+    walked += walked.empty() ? name : "." + name;
+    if (!at->contains(name) || (*at)[name].is_null()) return nullptr;
+    at = &(*at)[name];
+    rest.remove_prefix(dot + 1);
+    if (!at->is_object() || is_measured(*at)) {
+      if (s.input == Input::efficiency_isentropic) return at;  // "efficiency": 0.82
+      if (s.input == Input::efficiency_polytropic) return nullptr;
+      if (at->is_object()) {
+        refuse(fmt::format("{}: expected an object of keys such as \"{}\", got a measured value", walked, rest));
+      }
+      refuse(fmt::format("{}: expected an object, got {}", walked, at->type_name()));
+    }
   }
-  const std::string rest(tail);
-  if (!first.contains(rest) || first[rest].is_null()) return nullptr;
-  return &first[rest];
+  const std::string leaf(rest);
+  if (!at->contains(leaf) || (*at)[leaf].is_null()) return nullptr;
+  return &(*at)[leaf];
 }
 
-// The dimension a value is read in: a pump head may be a height ("85 m") or an energy
-// per mass ("0.83 kJ/kg"), told by its unit.
-Dimension reading_dimension(const InputSpec& s, const json& value) {
-  if (s.input != Input::head || !value.is_string()) return s.dimension;
-  const units::UnitInfo* unit = units::find_unit(unit_written(value.get<std::string>()));
-  return unit && unit->dimension == Dimension::length ? Dimension::length : Dimension::specific_energy;
+// A pump head is a height ("85 m") or an energy per mass ("0.83 kJ/kg"): its unit tells.
+Dimension head_dimension(const json& value, const std::string& path, const units::ParseContext& context,
+                         units::ParseNotes& notes) {
+  static constexpr Dimension kForms[] = {Dimension::length, Dimension::specific_energy};
+  try {
+    return units::parse_any(value.get<std::string>(), kForms, path, context, notes).dimension;
+  } catch (const Error& e) {
+    throw e.with_context(path);
+  }
 }
 
-GivenValue read_given(const InputSpec& s, const json& value, const std::string& path,
+GivenValue read_given(const InputSpec& s, const json& measured, const std::string& path,
                       const units::ParseContext& context, units::ParseNotes& notes) {
-  const Dimension d = reading_dimension(s, value);
+  const auto [value_ptr, uncertainty] = split_measured(measured, path);
+  const json& value = *value_ptr;
+  const Dimension d = s.input == Input::head && value.is_string() ? head_dimension(value, path, context, notes)
+                                                                  : s.dimension;
   const ReadQuantity q = read_quantity(value, d, path, context, notes);
   GivenValue g;
   g.input = s.input;
@@ -106,30 +122,63 @@ GivenValue read_given(const InputSpec& s, const json& value, const std::string& 
   g.written = value.is_string() ? value.get<std::string>() : si.empty() ? value.dump() : value.dump() + " " + std::string(si);
   const std::string problem = given_value_problem(s.input, g.si, g.unit);
   if (!problem.empty()) refuse(fmt::format("{}: {}", path, problem));
+  if (uncertainty) {
+    const std::string where = fmt::format("{}.{}", path, kUncertaintyKey);
+    g.uncertainty = read_stated_uncertainty(*uncertainty, s.input, where, context);
+  }
   return g;
 }
 
-void read_values(const json& c, CaseInput& out) {
+// The site's values, which the others are read against: the barometer and the standard
+// conditions (both of them, or neither).
+units::ParseContext read_site(const json& c, CaseInput& out, units::ParseNotes& notes) {
   units::ParseContext context;
-  units::ParseNotes notes;
-  const InputSpec& barometer = machines::spec(Input::barometric_pressure);
-  if (const json* b = value_at(c, barometer)) {
-    GivenValue g = read_given(barometer, *b, std::string(barometer.key), context, notes);
-    context.barometric_pressure = g.si;
+  for (const InputSpec& s : machines::kInputs) {
+    if (s.field) continue;
+    const json* v = value_at(c, s);
+    if (!v) continue;
+    GivenValue g = read_given(s, *v, std::string(s.key), context, notes);
+    if (s.input == Input::barometric_pressure) context.barometric_pressure = g.si;
     out.given.push_back(std::move(g));
   }
+  const GivenValue* p = out.find(Input::standard_pressure);
+  const GivenValue* T = out.find(Input::standard_temperature);
+  if ((p == nullptr) != (T == nullptr)) {
+    refuse("site.standard_conditions: give both pressure and temperature");
+  }
+  if (p) {
+    if (p->on_barometer) refuse("site.standard_conditions.pressure: an absolute pressure: not a gauge unit");
+    context.standard_conditions = units::StandardConditions{p->si, T->si};
+  }
+  return context;
+}
+
+void read_values(const json& c, CaseInput& out) {
+  units::ParseNotes notes;
+  const units::ParseContext context = read_site(c, out, notes);
   for (const InputSpec& s : machines::kInputs) {
-    if (s.input == Input::barometric_pressure) continue;
+    if (!s.field) continue;
     const json* v = value_at(c, s);
     if (!v) continue;
     // "efficiency": 0.82 is named as written in messages.
-    const bool shorthand = s.input == Input::efficiency_isentropic && !c[std::string(head_of(s.key))].is_object();
+    const json& head = c[std::string(head_of(s.key))];
+    const bool shorthand = s.input == Input::efficiency_isentropic && (!head.is_object() || is_measured(head));
     out.given.push_back(read_given(s, *v, std::string(shorthand ? head_of(s.key) : s.key), context, notes));
   }
   // The barometer was read first; it belongs at its place in the table's order.
   std::stable_sort(out.given.begin(), out.given.end(),
                    [](const GivenValue& a, const GivenValue& b) { return a.input < b.input; });
   if (notes.used_default_barometer) out.warnings.emplace_back(kDefaultBarometerWarning);
+  const std::string uncertainty(kUncertaintyKey);
+  if (c.contains(uncertainty) && !c[uncertainty].is_null()) {
+    out.uncertainty_by_key = read_uncertainty_by_key(c[uncertainty], uncertainty, context);
+    apply_uncertainty_by_key(out, out.uncertainty_by_key);
+  }
+  if (notes.absolute_water_column) {
+    out.warnings.emplace_back("a water column (inH2O, mmH2O) was read as an absolute pressure; a reading against the "
+                              "barometer is written inH2Og or mmH2Og");
+  }
+  if (notes.standard_reference) out.standard_reference = units::describe(*notes.standard_reference);
 }
 
 }  // namespace
@@ -194,13 +243,18 @@ CaseInput read_case(const json& c, size_t index, FluidFactory& fluids, const std
   CaseInput out;
   out.id = case_label(c, index);
   out.origin = origin;
-  warn_unknown_keys(c, out.warnings);
+  warn_unknown_keys(c, "", out.warnings);
   out.machine = read_machine(c, out.machine_written);
   const std::string fluid(kFluidKey);
   if (!c.contains(fluid)) refuse("fluid: missing; give a fluid name (shaftwork fluids lists them) or object");
-  out.fluid = fluids.make(c[fluid], fluid, out.warnings);
-  out.fluid_label = fluids.label(c[fluid], *out.fluid);
   read_values(c, out);
+  // A moist gas takes its water content at the inlet state.
+  const GivenValue* p1 = out.find(Input::inlet_pressure);
+  const GivenValue* T1 = out.find(Input::inlet_temperature);
+  const FluidSite site{p1 ? std::optional<double>(p1->si) : std::nullopt,
+                       T1 ? std::optional<double>(T1->si) : std::nullopt};
+  out.fluid = fluids.make(c[fluid], fluid, out.warnings, site);
+  out.fluid_label = fluids.label(c[fluid], *out.fluid);
   if (const std::string problem = machines::input_problem(to_rating_input(out)); !problem.empty()) refuse(problem);
   return out;
 }

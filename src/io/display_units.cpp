@@ -1,5 +1,6 @@
 #include "shaftwork/io/display_units.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include <fmt/format.h>
@@ -55,10 +56,34 @@ std::string_view sized_unit(Dimension d, UnitSystem system, const machines::Rati
   }
 }
 
+// Units of US customary practice: a case written mostly in them reads in them.
+bool is_us_unit(std::string_view symbol) {
+  static constexpr std::string_view kUs[] = {
+      "psi",     "psia",    "psig",   "inHg",  "inHgV", "inH2O",  "inH2Og", "degF",  "F",      "\u00b0F",
+      "degR",    "R",       "lb/s",   "lb/h",  "lb/hr", "lbm/h",  "lbm/hr", "klb/h", "klb/hr", "gpm",
+      "GPM",     "acfm",    "ACFM",   "cfm",   "CFM",   "scfm",   "SCFM",   "scfh",  "MSCFD",  "MMSCFD",
+      "MMscfd",  "lbmol/h", "hp",     "bhp",   "Btu/h", "Btu/lb", "ft-lbf/lb", "ft", "in",     "Btu/(lb R)",
+      "lb/ft3",  "ft/s"};
+  return std::find(std::begin(kUs), std::end(kUs), symbol) != std::end(kUs);
+}
+
+// The system a case is written in: US when most of its units with a symbol are.
+UnitSystem system_of(const CaseInput& input, UnitSystem fallback) {
+  int us = 0;
+  int other = 0;
+  for (const GivenValue& g : input.given) {
+    if (g.unit.empty() || g.unit == "%") continue;
+    (is_us_unit(g.unit) ? us : other) += 1;
+  }
+  if (us == other) return fallback;
+  return us > other ? UnitSystem::us : UnitSystem::si;
+}
+
 }  // namespace
 
 DisplayUnits::DisplayUnits(UnitSystem system, bool forced, const CaseInput* input, const machines::Rating& rating)
     : barometer_(input ? input->barometer() : units::kStandardAtmosphere) {
+  if (input && !forced) system = system_of(*input, system);
   for (std::size_t i = 0; i < units_.size(); ++i) {
     const auto d = static_cast<Dimension>(i);
     std::string written = input && !forced ? input->unit_used_for(d) : std::string();
@@ -71,6 +96,23 @@ std::string format_number(double value, Precision precision) {
   if (precision.kind == Precision::Kind::decimals) return fmt::format("{:.{}f}", value + 0.0, precision.digits);
   char buffer[kMaxNumberChars + 8];
   return std::string(buffer, format_significant(buffer, value, precision.digits));
+}
+
+double difference_from_si(double si, std::string_view unit) {
+  const units::UnitInfo* u = unit.empty() ? nullptr : units::find_unit(unit);
+  return u ? si / std::fabs(u->scale) : si;
+}
+
+std::string DisplayUnits::text(double si, std::optional<double> u_si, Dimension d, Precision precision) const {
+  const std::string_view u = unit(d);
+  std::string out = format_number(u.empty() ? si : units::from_si(si, u, d, barometer_), precision);
+  if (u_si) {
+    const Precision two{Precision::Kind::significant, 2};
+    out += fmt::format(" ± {}", format_number(difference_from_si(*u_si, u), two));
+  } else {
+    out += " ± n/a";
+  }
+  return u.empty() ? out : fmt::format("{} {}", out, u);
 }
 
 std::string DisplayUnits::text(double si, Dimension d, Precision precision) const {

@@ -1,6 +1,8 @@
 // A guarantee's verdicts as CSV columns: case files' csv (write_csv) and batches, where a
 // logger's rows are each judged against the template's guarantee.
+#include <algorithm>
 #include <cmath>
+#include <utility>
 
 #include <fmt/format.h>
 
@@ -49,6 +51,15 @@ std::string GuaranteeColumns::cells(const machines::GuaranteeResult* g, UnitSyst
     if (check) out += machines::verdict_name(check->verdict);
   }
   return out + ',' + csv_field(error);
+}
+
+void GuaranteeColumns::add(const GuaranteeColumns& other) {
+  std::vector<machines::Checked> merged;
+  for (machines::Checked q : machines::kAllChecked) {
+    const auto has = [q](const std::vector<machines::Checked>& v) { return std::find(v.begin(), v.end(), q) != v.end(); };
+    if (has(checks) || has(other.checks)) merged.push_back(q);
+  }
+  checks = std::move(merged);
 }
 
 GuaranteeColumns guarantee_columns(const std::vector<const machines::GuaranteeResult*>& guarantees) {

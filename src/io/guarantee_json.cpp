@@ -3,6 +3,7 @@
 #include <cmath>
 
 #include "json_numbers.hpp"
+#include "shaftwork/io/number_format.hpp"
 #include "shaftwork/io/result_writer.hpp"
 
 namespace shaftwork::io {
@@ -13,7 +14,7 @@ using machines::SimilarityCheck;
 using nlohmann::ordered_json;
 
 ordered_json number_or_null(const std::optional<double>& x) {
-  return x && std::isfinite(*x) ? ordered_json(json_rounded(*x)) : ordered_json(nullptr);
+  return x && std::isfinite(*x) ? ordered_json(rounded_for_output(*x)) : ordered_json(nullptr);
 }
 
 std::string tolerance_from(const Check& c, const machines::GuaranteeResult& g) {
@@ -30,11 +31,11 @@ ordered_json check_json(const Check& c, const machines::GuaranteeResult& g) {
   j["quantity"] = machines::checked_spec(c.quantity).key;
   j["measured"] = number_or_null(c.measured);
   j["converted"] = number_or_null(c.converted);
-  j["guaranteed"] = json_rounded(c.guaranteed);
+  j["guaranteed"] = rounded_for_output(c.guaranteed);
   j["deviation_percent"] = number_or_null(c.deviation_percent);
   j["tolerance_percent"] = ordered_json::array({number_or_null(c.tolerance.min_percent), number_or_null(c.tolerance.max_percent)});
   j["tolerance_from"] = tolerance_from(c, g);
-  if (c.uncertainty_percent) j["uncertainty_percent"] = json_rounded(*c.uncertainty_percent);
+  if (c.uncertainty_percent) j["uncertainty_percent"] = rounded_for_output(*c.uncertainty_percent);
   j["verdict"] = machines::verdict_name(c.verdict);
   if (!c.note.empty()) j["note"] = c.note;
   return j;
@@ -44,11 +45,11 @@ ordered_json similarity_json(const SimilarityCheck& s) {
   ordered_json j;
   j["parameter"] = s.parameter;
   j["point"] = s.point;
-  if (s.test) j["test"] = json_rounded(*s.test);
-  if (s.guarantee) j["guarantee"] = json_rounded(*s.guarantee);
-  if (s.ratio) j["ratio"] = json_rounded(*s.ratio);
-  if (s.difference) j["difference"] = json_rounded(*s.difference);
-  j["limits"] = ordered_json::array({json_rounded(s.low), json_rounded(s.high)});
+  if (s.test) j["test"] = rounded_for_output(*s.test);
+  if (s.guarantee) j["guarantee"] = rounded_for_output(*s.guarantee);
+  if (s.ratio) j["ratio"] = rounded_for_output(*s.ratio);
+  if (s.difference) j["difference"] = rounded_for_output(*s.difference);
+  j["limits"] = ordered_json::array({rounded_for_output(s.low), rounded_for_output(s.high)});
   j["within"] = s.within;
   j["source"] = s.source;
   return j;
@@ -74,7 +75,7 @@ ordered_json guarantee_json(const machines::GuaranteeResult& g) {
   j["converted"] = values_json(g.converted);
   j["points"] = ordered_json::array();
   for (const machines::ConvertedPoint& p : g.points) {
-    j["points"].push_back({{"id", p.id}, {"speed_ratio", json_rounded(p.speed_ratio)}, {"converted", values_json(p.values)}});
+    j["points"].push_back({{"id", p.id}, {"speed_ratio", rounded_for_output(p.speed_ratio)}, {"converted", values_json(p.values)}});
   }
   j["measured_at"] = g.nearest_point;
   j["warnings"] = g.warnings;

@@ -1,6 +1,8 @@
 #include "shaftwork/io/guarantee_reader.hpp"
 
 #include <algorithm>
+#include <cstddef>
+#include <span>
 #include <string_view>
 
 #include <fmt/format.h>
@@ -8,6 +10,7 @@
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/case_reader.hpp"
 #include "shaftwork/io/json_quantity.hpp"
+#include "shaftwork/io/result_keys.hpp"
 
 namespace shaftwork::io {
 namespace {
@@ -225,15 +228,33 @@ machines::Guarantee read_guarantee(const json& object, MachineKind machine, Flui
   return g;
 }
 
+std::map<std::string, double, std::less<>> uncertainty_by_result_key(const UncertaintyResult& u) {
+  std::map<std::string, double, std::less<>> out;
+  const auto& keys = result_keys();
+  for (std::size_t k = 0; k < keys.size() && k < u.expanded.size(); ++k) {
+    if (const auto expanded = u.expanded[k]) out.emplace(std::string(keys[k].key), *expanded);
+  }
+  return out;
+}
+
 machines::TestPoint test_point(const CaseOutcome& o) {
   machines::TestPoint p;
   p.id = o.id;
   p.input = to_rating_input(*o.input);
   p.rating = *o.rating;
-  // Issue 13 (measurement uncertainty): copy the case's expanded uncertainties, SI by
-  // dotted result key, into p.uncertainty here.
+  if (o.uncertainty) p.uncertainty = uncertainty_by_result_key(*o.uncertainty);
   return p;
 }
+
+namespace {
+
+// A judging error as the user reads it: "guarantee..." first.
+std::string guarantee_message(const Error& e) {
+  const std::string message = e.what();
+  return message.rfind("guarantee", 0) == 0 ? message : "guarantee: " + message;
+}
+
+}  // namespace
 
 void judge_case_guarantee(const json& guarantee, FluidFactory& fluids, CaseOutcome& o) {
   try {
@@ -241,39 +262,62 @@ void judge_case_guarantee(const json& guarantee, FluidFactory& fluids, CaseOutco
     const machines::TestPoint point = test_point(o);
     o.guarantee = machines::judge(g, std::span(&point, 1));
   } catch (const Error& e) {
-    const std::string message = e.what();
-    o.guarantee_error = message.rfind("guarantee", 0) == 0 ? message : "guarantee: " + message;
+    o.guarantee_error = guarantee_message(e);
   }
 }
 
-TestOutcome judge_file_guarantee(const json& guarantee, const std::vector<CaseOutcome>& cases,
-                                 const std::string& origin, FluidFactory& fluids) {
-  TestOutcome t;
-  t.origin = origin;
-  std::vector<machines::TestPoint> points;
-  for (const CaseOutcome& o : cases) {
-    t.points.push_back(o.id);
-    if (!o.ok()) {
-      if (t.error.empty()) {
-        t.error = fmt::format("guarantee: not judged: the test point \"{}\" could not be rated; the verdict rests on "
-                              "every test point of the file",
-                              o.id);
-      }
-      continue;
+FileTest::FileTest(const json& document, std::string origin) {
+  const std::string key(kGuaranteeKey);
+  if (document.is_object() && document.contains("cases") && document.contains(key)) guarantee_ = &document[key];
+  test_.origin = std::move(origin);
+}
+
+void FileTest::add(const CaseOutcome& o) {
+  if (!active()) return;
+  test_.points.push_back(o.id);
+  if (!o.ok()) {
+    if (test_.error.empty()) {
+      test_.error = fmt::format("guarantee: not judged: the test point \"{}\" could not be rated; the verdict rests "
+                                "on every test point of the file",
+                                o.id);
     }
-    if (!t.units_from) t.units_from = o.input;
-    points.push_back(test_point(o));
+    return;
   }
-  if (!t.error.empty()) return t;
+  if (!test_.units_from) test_.units_from = o.input;
+  if (test_.error.empty()) points_.push_back(test_point(o));
+}
+
+TestOutcome FileTest::finish(FluidFactory& fluids) {
+  TestOutcome t = std::move(test_);
+  std::vector<machines::TestPoint> points = std::move(points_);
+  if (!t.error.empty() || points.empty()) return t;
   try {
-    const machines::Guarantee g = read_guarantee(guarantee, points.front().rating.machine, fluids,
-                                                 t.units_from->barometer(), t.warnings);
+    const machines::Guarantee g =
+        read_guarantee(*guarantee_, points.front().rating.machine, fluids, t.units_from->barometer(), t.warnings);
     t.result = machines::judge(g, points);
   } catch (const Error& e) {
-    const std::string message = e.what();
-    t.error = message.rfind("guarantee", 0) == 0 ? message : "guarantee: " + message;
+    t.error = guarantee_message(e);
   }
   return t;
+}
+
+void add_case_guarantee_columns(const json& document, const std::string& origin, FluidFactory& fluids,
+                                std::optional<GuaranteeColumns>& columns) {
+  const std::string key(kGuaranteeKey);
+  const auto cases = case_objects(document, origin);
+  for (std::size_t i = 0; i < cases.size(); ++i) {
+    const json& c = *cases[i];
+    if (!c.is_object() || !c.contains(key)) continue;
+    if (!columns) columns.emplace();
+    try {
+      const CaseInput input = read_case(c, i, fluids, origin);
+      std::vector<std::string> ignored;
+      const machines::Guarantee g = read_guarantee(c[key], input.machine, fluids, input.barometer(), ignored);
+      columns->add(guarantee_columns(g, input.machine));
+    } catch (const Error&) {
+    } catch (const json::exception&) {
+    }
+  }
 }
 
 }  // namespace shaftwork::io

@@ -7,11 +7,7 @@
 
 namespace shaftwork::io {
 
-// An SI value rounded to 15 significant digits: the digits a double holds for sure, so
-// that unit conversions leave no noise in the last place (4120800, not 4120800.0000000005).
-double json_rounded(double x);
-
-// Sets j[a][b]... along the dotted key to json_rounded(value).
+// Sets j[a][b]... along the dotted key to rounded_for_output(value) (number_format.hpp).
 void json_place(nlohmann::ordered_json& j, std::string_view key, double value);
 
 }  // namespace shaftwork::io

@@ -3,7 +3,11 @@
 #include <charconv>
 #include <cmath>
 #include <cstdint>
+#include <cstdlib>
 #include <cstring>
+#include <string>
+
+#include <fmt/format.h>
 
 namespace shaftwork::io {
 namespace {
@@ -143,6 +147,12 @@ void append_significant(std::string& text, double value, int digits) {
   char buffer[kMaxNumberChars];
   const char* end = format_significant(buffer, value, digits);
   text.append(buffer, static_cast<std::size_t>(end - buffer));
+}
+
+double rounded_for_output(double x, int digits) {
+  if (x == 0 || !std::isfinite(x)) return x + 0.0;
+  const std::string text = fmt::format("{:.{}g}", x, digits);
+  return std::strtod(text.c_str(), nullptr);
 }
 
 }  // namespace shaftwork::io

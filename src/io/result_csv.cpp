@@ -1,5 +1,6 @@
 // Results as CSV for spreadsheets: one row per case, a column per result key in the
 // unit system's unit (RFC 4180: CRLF line ends, quoted fields where needed).
+#include <algorithm>
 #include <cmath>
 
 #include <fmt/format.h>
@@ -21,46 +22,64 @@ std::string csv_field(std::string_view text) {
   return quoted + '"';
 }
 
-void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, UnitSystem system) {
-  out << "id,file,status,error,machine,fluid,model,solved_for";
-  for (const ResultKey& k : result_keys()) {
-    const std::string_view unit = column_unit(k.dimension, system);
-    out << ',' << csv_field(unit.empty() ? std::string(k.key) : fmt::format("{} [{}]", k.key, unit));
+namespace {
+
+constexpr int kDigits = 10;
+
+// "outlet.temperature [degC]", or the key alone for a fraction; `prefix` "uncertainty.".
+std::string column_header(std::string_view prefix, const ResultKey& k, UnitSystem system) {
+  const std::string_view unit = column_unit(k.dimension, system);
+  return csv_field(unit.empty() ? fmt::format("{}{}", prefix, k.key) : fmt::format("{}{} [{}]", prefix, k.key, unit));
+}
+
+// The cells of the uncertainty columns: U of each result key in its column's unit.
+void append_uncertainty_cells(std::string& out, const CaseOutcome& o, UnitSystem system) {
+  const auto& keys = result_keys();
+  for (std::size_t k = 0; k < keys.size(); ++k) {
+    out += ',';
+    if (!o.ok() || !o.uncertainty || k >= o.uncertainty->expanded.size()) continue;
+    const std::optional<double> u = o.uncertainty->expanded[k];
+    if (u) append_significant(out, difference_from_si(*u, column_unit(keys[k].dimension, system)), kDigits);
   }
-  // Guarantee columns when some case has a guarantee of its own.
-  std::vector<const machines::GuaranteeResult*> judged;
-  bool guarantees = false;
-  for (const auto& o : outcomes) {
-    if (o.guarantee) judged.push_back(&*o.guarantee);
-    guarantees = guarantees || o.guarantee || !o.guarantee_error.empty();
+}
+
+}  // namespace
+
+std::string csv_header(const TableOptions& options) {
+  const UnitSystem system = options.system;
+  std::string out = "id,file,status,error,machine,fluid,model,solved_for";
+  for (const ResultKey& k : result_keys()) out += ',' + column_header("", k, system);
+  if (options.uncertainty_columns) {
+    for (const ResultKey& k : result_keys()) out += ',' + column_header("uncertainty.", k, system);
   }
-  const GuaranteeColumns columns = guarantee_columns(judged);
-  if (guarantees) out << columns.header(system);
-  out << ",warnings\r\n";
-  constexpr int kDigits = 10;
-  for (const auto& o : outcomes) {
-    out << csv_field(o.id) << ',' << csv_field(o.origin) << ',' << (o.ok() ? "ok" : "error") << ','
-        << csv_field(o.error) << ',';
-    if (o.ok()) {
-      const machines::Rating& r = *o.rating;
-      out << csv_field(o.input ? o.input->machine_written : machines::machine_name(r.machine)) << ','
-          << csv_field(o.input ? o.input->fluid_label : "") << ',' << r.model << ',' << r.solved_for.joined(" ");
-      for (const ResultKey& k : result_keys()) {
-        out << ',';
-        const std::optional<double> v = k.value(r);
-        if (!v || !std::isfinite(*v)) continue;
-        const std::string_view unit = column_unit(k.dimension, system);
-        std::string text;
-        append_significant(text, unit.empty() ? *v : units::from_si(*v, unit, k.dimension), kDigits);
-        out << text;
-      }
-    } else {
-      out << ",,,";
-      for (std::size_t i = 0; i < result_keys().size(); ++i) out << ',';
+  if (options.guarantee_columns) out += options.guarantee_columns->header(system);
+  return out + ",warnings\r\n";
+}
+
+std::string csv_row(const CaseOutcome& o, const TableOptions& options) {
+  const UnitSystem system = options.system;
+  std::string out = fmt::format("{},{},{},{},", csv_field(o.id), csv_field(o.origin), o.ok() ? "ok" : "error",
+                                csv_field(o.error));
+  if (o.ok()) {
+    const machines::Rating& r = *o.rating;
+    out += fmt::format("{},{},{},{}", csv_field(o.input ? o.input->machine_written : machines::machine_name(r.machine)),
+                       csv_field(o.input ? o.input->fluid_label : ""), r.model, r.solved_for.joined(" "));
+    for (const ResultKey& k : result_keys()) {
+      out += ',';
+      const std::optional<double> v = k.value(r);
+      if (!v || !std::isfinite(*v)) continue;
+      const std::string_view unit = column_unit(k.dimension, system);
+      append_significant(out, unit.empty() ? *v : units::from_si(*v, unit, k.dimension), kDigits);
     }
-    if (guarantees) out << columns.cells(o.guarantee ? &*o.guarantee : nullptr, system, o.guarantee_error);
-    out << ',' << csv_field(fmt::format("{}", fmt::join(o.warnings, "; "))) << "\r\n";
+  } else {
+    out += ",,,";
+    out.append(result_keys().size(), ',');
   }
+  if (options.uncertainty_columns) append_uncertainty_cells(out, o, system);
+  if (options.guarantee_columns) {
+    out += options.guarantee_columns->cells(o.guarantee ? &*o.guarantee : nullptr, system, o.guarantee_error);
+  }
+  return out + ',' + csv_field(fmt::format("{}", fmt::join(o.warnings, "; "))) + "\r\n";
 }
 
 }  // namespace shaftwork::io

@@ -1,10 +1,10 @@
 // Results as the contract's JSON: one object per case, its numbers placed by the dotted
 // keys of result_keys().
 #include <cmath>
-#include <cstdlib>
 
 #include <fmt/format.h>
 
+#include "shaftwork/io/number_format.hpp"
 #include "shaftwork/io/result_keys.hpp"
 #include "shaftwork/io/result_writer.hpp"
 #include "json_numbers.hpp"
@@ -13,19 +13,13 @@ namespace shaftwork::io {
 
 using nlohmann::ordered_json;
 
-double json_rounded(double x) {
-  if (x == 0 || !std::isfinite(x)) return x + 0.0;
-  const std::string text = fmt::format("{:.15g}", x);
-  return std::strtod(text.c_str(), nullptr);
-}
-
 void json_place(ordered_json& j, std::string_view key, double value) {
   ordered_json* at = &j;
   for (auto dot = key.find('.'); dot != std::string_view::npos; dot = key.find('.')) {
     at = &(*at)[std::string(key.substr(0, dot))];
     key.remove_prefix(dot + 1);
   }
-  (*at)[std::string(key)] = json_rounded(value);
+  (*at)[std::string(key)] = rounded_for_output(value);
 }
 
 namespace {
@@ -46,6 +40,37 @@ ordered_json given_json(const CaseInput& in) {
   return given;
 }
 
+// An uncertainty's digits: six, far more than it is known to (GUM 7.2.6 quotes two), enough
+// to compute with, and clear of the last digits' noise of the sensitivity differences.
+constexpr int kUncertaintyDigits = 6;
+
+// U of every result that has a value, by dotted key; null where it is not available.
+ordered_json uncertainty_json(const UncertaintyResult& u, const machines::Rating& r) {
+  ordered_json out = ordered_json::object();
+  const auto& keys = result_keys();
+  for (std::size_t k = 0; k < keys.size(); ++k) {
+    const std::optional<double> v = keys[k].value(r);
+    if (!v || !std::isfinite(*v)) continue;
+    const std::optional<double> expanded = k < u.expanded.size() ? u.expanded[k] : std::nullopt;
+    out[std::string(keys[k].key)] =
+        expanded ? ordered_json(rounded_for_output(*expanded, kUncertaintyDigits)) : ordered_json(nullptr);
+  }
+  return out;
+}
+
+ordered_json contributions_json(const UncertaintyResult& u) {
+  ordered_json out = ordered_json::object();
+  for (const KeyContributions& c : u.contributions) {
+    ordered_json shares = ordered_json::array();
+    for (const Contribution& share : c.shares) {
+      shares.push_back({{"input", machines::key_of(share.input)},
+                        {"share_percent", std::round(10 * share.share_percent) / 10}});
+    }
+    out[std::string(c.key)] = std::move(shares);
+  }
+  return out;
+}
+
 }  // namespace
 
 ordered_json result_json(const CaseOutcome& o) {
@@ -60,6 +85,7 @@ ordered_json result_json(const CaseOutcome& o) {
   j["model"] = r.model;
   j["solved_for"] = r.solved_for.keys();
   if (o.input) j["given"] = given_json(*o.input);
+  if (o.input && !o.input->standard_reference.empty()) j["standard_reference"] = o.input->standard_reference;
   for (const ResultKey& k : result_keys()) {
     const std::optional<double> v = k.value(r);
     if (!v) continue;
@@ -74,6 +100,10 @@ ordered_json result_json(const CaseOutcome& o) {
     json_place(j, k.key, *v);
   }
   if (r.efficiency_check) j["efficiency_check"]["key"] = machines::key_of(r.efficiency_check->input);
+  if (o.uncertainty) {
+    j["uncertainty"] = uncertainty_json(*o.uncertainty, r);
+    j["uncertainty_contributions"] = contributions_json(*o.uncertainty);
+  }
   if (o.guarantee) {
     j["guarantee"] = guarantee_json(*o.guarantee);
   } else if (!o.guarantee_error.empty()) {
@@ -81,18 +111,6 @@ ordered_json result_json(const CaseOutcome& o) {
   }
   j["warnings"] = o.warnings;
   return j;
-}
-
-void write_json(std::ostream& out, const std::vector<CaseOutcome>& outcomes, const std::vector<TestOutcome>& tests) {
-  ordered_json doc;
-  doc["results"] = ordered_json::array();
-  for (const auto& o : outcomes) doc["results"].push_back(result_json(o));
-  if (tests.size() == 1) doc["test"] = test_json(tests.front());
-  if (tests.size() > 1) {
-    doc["test"] = ordered_json::array();
-    for (const TestOutcome& t : tests) doc["test"].push_back(test_json(t));
-  }
-  out << doc.dump(2, ' ', false, ordered_json::error_handler_t::replace) << '\n';
 }
 
 }  // namespace shaftwork::io

@@ -1,6 +1,12 @@
 #include "shaftwork/io/result_keys.hpp"
 
+#include <cmath>
 #include <string>
+
+#include <fmt/format.h>
+
+#include "shaftwork/io/number_format.hpp"
+#include "shaftwork/text.hpp"
 
 namespace shaftwork::io {
 
@@ -18,6 +24,9 @@ using S = Section;
 
 constexpr Precision sig(int digits) { return {Precision::Kind::significant, digits}; }
 constexpr Precision dec(int digits) { return {Precision::Kind::decimals, digits}; }
+// A value of real-gas models only (the compressibility of an ideal gas is 1 by definition).
+O real_gas(R r, double value) { return r.fluid_kind == fluids::FluidKind::real_gas ? O(value) : std::nullopt; }
+
 constexpr bool batch = true;
 constexpr bool not_in_batch = false;
 
@@ -38,6 +47,9 @@ std::vector<ResultKey> make_rows() {
        "inlet density", sig(5), S::derived, not_in_batch},
       {key_of(Input::inlet_quality), Dimension::fraction, [](R r) -> O { return r.inlet.quality; }, std::nullopt,
        "inlet quality", dec(4), S::state, batch, Applies::two_phase},
+      {"inlet.compressibility", Dimension::fraction,
+       [](R r) -> O { return real_gas(r, r.inlet.compressibility); }, std::nullopt,
+       "inlet compressibility Z", sig(5), S::derived, batch, Applies::real_gas},
       {key_of(Input::outlet_pressure), Dimension::pressure, [](R r) -> O { return r.outlet.pressure; },
        Q::outlet_pressure, "outlet pressure", sig(5), S::state, batch},
       {key_of(Input::outlet_temperature), Dimension::temperature, [](R r) -> O { return r.outlet.temperature; },
@@ -50,6 +62,9 @@ std::vector<ResultKey> make_rows() {
        "outlet density", sig(5), S::derived, not_in_batch},
       {key_of(Input::outlet_quality), Dimension::fraction, [](R r) -> O { return r.outlet.quality; },
        std::nullopt, "outlet quality", dec(4), S::state, batch, Applies::two_phase},
+      {"outlet.compressibility", Dimension::fraction,
+       [](R r) -> O { return real_gas(r, r.outlet.compressibility); }, std::nullopt,
+       "outlet compressibility Z", sig(5), S::derived, batch, Applies::real_gas},
       {"outlet_isentropic.pressure", Dimension::pressure, [](R r) -> O { return r.outlet_isentropic.pressure; },
        std::nullopt, "isentropic outlet pressure", sig(5), S::hidden, not_in_batch},
       {"outlet_isentropic.temperature", Dimension::temperature,
@@ -60,6 +75,9 @@ std::vector<ResultKey> make_rows() {
        S::hidden, not_in_batch},
       {"outlet_isentropic.quality", Dimension::fraction, [](R r) -> O { return r.outlet_isentropic.quality; },
        std::nullopt, "isentropic outlet quality", dec(4), S::derived, batch, Applies::two_phase},
+      {"outlet_isentropic.compressibility", Dimension::fraction,
+       [](R r) -> O { return real_gas(r, r.outlet_isentropic.compressibility); }, std::nullopt,
+       "isentropic outlet compressibility Z", sig(5), S::hidden, not_in_batch},
       {key_of(Input::mass_flow), Dimension::mass_flow, [](R r) -> O { return r.mass_flow; }, Q::flow,
        "mass flow", sig(5), S::size, batch},
       {key_of(Input::volume_flow), Dimension::volume_flow, [](R r) -> O { return r.volume_flow; }, std::nullopt,
@@ -77,10 +95,19 @@ std::vector<ResultKey> make_rows() {
       {key_of(Input::efficiency_polytropic), Dimension::fraction,
        [](R r) -> O { return r.efficiency_polytropic; }, Q::efficiency, "polytropic efficiency", dec(4),
        S::efficiency, batch},
+      {"efficiency.polytropic_schultz", Dimension::fraction,
+       [](R r) -> O { return r.schultz ? O(r.schultz->polytropic_efficiency) : std::nullopt; }, std::nullopt,
+       "Schultz polytropic efficiency", dec(4), S::derived, batch, Applies::real_gas},
       {"head.isentropic", Dimension::specific_energy, [](R r) -> O { return r.head_isentropic; }, std::nullopt,
        "isentropic head", sig(5), S::derived, batch},
       {"head.polytropic", Dimension::specific_energy, [](R r) -> O { return r.head_polytropic; }, std::nullopt,
        "polytropic head", sig(5), S::derived, batch},
+      {"head.polytropic_schultz", Dimension::specific_energy,
+       [](R r) -> O { return r.schultz ? O(r.schultz->polytropic_head) : std::nullopt; }, std::nullopt,
+       "Schultz polytropic head", sig(5), S::derived, batch, Applies::real_gas},
+      {"schultz_factor", Dimension::fraction,
+       [](R r) -> O { return r.schultz ? O(r.schultz->schultz_factor) : std::nullopt; }, std::nullopt,
+       "Schultz factor f", sig(5), S::derived, batch, Applies::real_gas},
       {"specific_work", Dimension::specific_energy, [](R r) -> O { return r.specific_work; }, std::nullopt,
        "specific work", sig(5), S::derived, batch},
       {"pressure_ratio", Dimension::fraction, [](R r) -> O { return r.pressure_ratio; }, std::nullopt,
@@ -99,6 +126,8 @@ std::vector<ResultKey> make_rows() {
        "flow coefficient", sig(4), S::derived, batch, Applies::impeller},
       {"machine_mach_number", Dimension::fraction, [](R r) -> O { return r.machine_mach_number; }, std::nullopt,
        "machine Mach number", sig(4), S::derived, batch, Applies::impeller},
+      {"humidity_ratio", Dimension::fraction, [](R r) -> O { return r.humidity_ratio; }, std::nullopt,
+       "humidity ratio, kg/kg", dec(5), S::derived, not_in_batch},
       {"power_balance.fluid_power", Dimension::power,
        [](R r) -> O { return r.power_balance ? O(r.power_balance->fluid_power) : std::nullopt; }, std::nullopt,
        "fluid power", sig(5), S::hidden, not_in_batch},
@@ -127,6 +156,18 @@ const std::vector<ResultKey>& result_keys() {
   return rows;
 }
 
+std::size_t row_of(const ResultKey& k) { return static_cast<std::size_t>(&k - result_keys().data()); }
+
+ResultNumbers result_numbers(const Rating& rating) {
+  ResultNumbers numbers;
+  numbers.reserve(result_keys().size());
+  for (const ResultKey& k : result_keys()) {
+    const std::optional<double> v = k.value(rating);
+    numbers.push_back(v && std::isfinite(*v) ? rounded_for_output(*v) : v);
+  }
+  return numbers;
+}
+
 const ResultKey* find_result_key(std::string_view key) {
   for (const ResultKey& k : result_keys()) {
     if (k.key == key) return &k;
@@ -141,6 +182,14 @@ std::string result_key_list() {
     out += k.key;
   }
   return out;
+}
+
+std::string no_result_key(std::string_view key) {
+  std::vector<std::string_view> keys;
+  for (const ResultKey& k : result_keys()) keys.push_back(k.key);
+  const std::string_view near = nearest_of(key, keys);
+  if (!near.empty()) return fmt::format("\"{}\" is no result key; did you mean {}?", key, near);
+  return fmt::format("\"{}\" is no result key; the keys are: {}", key, result_key_list());
 }
 
 }  // namespace shaftwork::io

@@ -2,6 +2,7 @@
 // or solved, then what the rating derived, in the units of the case.
 #include <algorithm>
 #include <cmath>
+#include <optional>
 
 #include <fmt/format.h>
 
@@ -18,14 +19,18 @@ using machines::Rating;
 
 constexpr int kLabelWidth = 31;
 constexpr int kValueWidth = 20;
+constexpr int kValueWidthWithUncertainty = 30;  // "4758.03 ± 52 m3/h"
+constexpr std::size_t kContributorsShown = 3;
 
 class CaseTable {
  public:
   CaseTable(std::ostream& out, const CaseOutcome& o, const TableOptions& options)
-      : out_(out), o_(o), r_(*o.rating), units_(options.system, options.system_forced, in(), r_) {}
+      : out_(out), o_(o), r_(*o.rating), units_(options.system, options.system_forced, in(), r_),
+        value_width_(o.uncertainty ? kValueWidthWithUncertainty : kValueWidth) {}
 
   void write(bool show_origin) {
     write_header(show_origin);
+    if (o_.uncertainty) out_ << "  ± U: expanded uncertainty, k = 2 (about 95 %)\n";
     for (Quantity q : machines::kAllQuantities) write_quantity(q);
     write_given_qualifiers();
     write_results();
@@ -37,7 +42,7 @@ class CaseTable {
   const CaseInput* in() const { return o_.input ? &*o_.input : nullptr; }
 
   void row(std::string_view label, const std::string& value, std::string_view note) {
-    std::string line = fmt::format("  {:<{}}{:<{}}{}", label, kLabelWidth, value, kValueWidth, note);
+    std::string line = fmt::format("  {:<{}}{:<{}}{}", label, kLabelWidth, value, value_width_, note);
     line.erase(line.find_last_not_of(' ') + 1);
     out_ << escape_control(line) << '\n';
   }
@@ -46,7 +51,36 @@ class CaseTable {
     const std::optional<double> v = k.value(r_);
     if (!v) return;
     printed_.push_back(&k);
-    row(k.label, units_.text(*v, k.dimension, k.precision), note);
+    const std::optional<double> u = uncertainty_of(k);
+    const bool shown = o_.uncertainty && !(u && *u == 0);  // "± 0" only says nothing was stated
+    row(k.label, shown ? units_.text(*v, u, k.dimension, k.precision) : units_.text(*v, k.dimension, k.precision),
+        note);
+    if (k.section == Section::efficiency) write_contributors(k.key);
+  }
+
+  std::optional<double> uncertainty_of(const ResultKey& k) const {
+    if (!o_.uncertainty) return std::nullopt;
+    const auto index = static_cast<std::size_t>(&k - result_keys().data());
+    return index < o_.uncertainty->expanded.size() ? o_.uncertainty->expanded[index] : std::nullopt;
+  }
+
+  // "    from outlet temperature 71 %, inlet temperature 18 %, outlet pressure 6 %": the
+  // largest shares of the efficiency's U^2.
+  void write_contributors(std::string_view key) {
+    const std::vector<Contribution>* shares = o_.uncertainty ? o_.uncertainty->contributions_of(key) : nullptr;
+    if (!shares || shares->empty()) return;
+    std::string line = "    U² from ";
+    for (std::size_t i = 0; i < shares->size() && i < kContributorsShown; ++i) {
+      if ((*shares)[i].share_percent < 0.5) break;  // would read "0 %"
+      line += fmt::format("{}{} {:.0f} %", i ? ", " : "", machines::spec((*shares)[i].input).label,
+                          (*shares)[i].share_percent);
+    }
+    out_ << line << '\n';
+  }
+
+  // A given value as written, with its stated uncertainty as written.
+  static std::string given_text(const GivenValue& g) {
+    return g.uncertainty ? fmt::format("{} ± {}", g.written, g.uncertainty->written) : g.written;
   }
 
   void write_header(bool show_origin) {
@@ -63,7 +97,9 @@ class CaseTable {
     const GivenValue* given_form = nullptr;
     for (const GivenValue& g : given()) {
       if (machines::spec(g.input).gives != q) continue;
-      row(machines::spec(g.input).label, g.written, "given");
+      const bool standard = g.input == Input::standard_volume_flow && !in()->standard_reference.empty();
+      row(machines::spec(g.input).label, given_text(g),
+          standard ? fmt::format("given, at {}", in()->standard_reference) : std::string("given"));
       given_form = &g;
       // A redundant efficiency's result is the one from the states: shown beside it.
       if (!(q == Quantity::efficiency && r_.efficiency_check)) mark(machines::key_of(g.input));
@@ -99,7 +135,7 @@ class CaseTable {
   void write_given_qualifiers() {
     for (const GivenValue& g : given()) {
       if (machines::spec(g.input).gives) continue;
-      row(machines::spec(g.input).label, g.written, "given");
+      row(machines::spec(g.input).label, given_text(g), "given");
       mark(machines::key_of(g.input));
     }
   }
@@ -122,12 +158,34 @@ class CaseTable {
     if (const auto& pb = r_.power_balance) {
       const Precision p{Precision::Kind::significant, 5};
       check("shaft power", units_.text(pb->given_power, units::Dimension::power, p),
-            units_.text(pb->shaft_power, units::Dimension::power, p), fmt::format("{:+.2f} %", pb->difference_percent));
+            units_.text(pb->shaft_power, units::Dimension::power, p),
+            fmt::format("{:+.2f}{} %", pb->difference_percent,
+                        plus_minus(uncertainty_of("power_balance.difference_percent"))));
     }
     if (const auto& ec = r_.efficiency_check) {
+      // The given efficiency and the one from the states rest on different inputs.
+      const std::optional<double> computed = uncertainty_of("efficiency_check.computed");
+      const std::optional<double> given = uncertainty_of("efficiency_check.given");
+      const std::string u =
+          computed && given ? plus_minus(100 * std::hypot(*computed, *given)) : plus_minus(std::nullopt);
       check(machines::spec(ec->input).label, fmt::format("{:.4f}", ec->given), fmt::format("{:.4f}", ec->computed),
-            fmt::format("{:+.2f} points", 100 * (ec->computed - ec->given)));
+            fmt::format("{:+.2f}{} points", 100 * (ec->computed - ec->given), u));
     }
+  }
+
+  std::optional<double> uncertainty_of(std::string_view key) const {
+    const ResultKey* k = find_result_key(key);
+    return k ? uncertainty_of(*k) : std::nullopt;
+  }
+
+  // " ± 1.6" (two significant digits), " ± n/a", or "" for a case without uncertainties.
+  std::string plus_minus(std::optional<double> u) const {
+    if (!o_.uncertainty) return {};
+    return u ? plus_minus(*u) : " ± n/a";
+  }
+  std::string plus_minus(double u) const {
+    if (!o_.uncertainty) return {};
+    return " ± " + format_number(u, Precision{Precision::Kind::significant, 2});
   }
 
   bool done(const ResultKey* k) const { return std::find(printed_.begin(), printed_.end(), k) != printed_.end(); }
@@ -136,43 +194,39 @@ class CaseTable {
   const CaseOutcome& o_;
   const Rating& r_;
   DisplayUnits units_;
+  int value_width_;
   std::vector<const ResultKey*> printed_;
 };
 
 }  // namespace
 
-void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, const TableOptions& options,
-                 const std::vector<TestOutcome>& tests) {
-  bool first = true;
-  for (const auto& o : outcomes) {
-    if (!first) out << '\n';
-    first = false;
-    if (!o.ok()) {
-      out << escape_control(o.id) << '\n';
-      if (options.show_origin && !o.origin.empty()) out << escape_control(fmt::format("  from {}", o.origin)) << '\n';
-      out << "  could not be rated: " << escape_control(o.error) << '\n';
-      for (const auto& w : o.warnings) out << "  warning: " << escape_control(w) << '\n';
-      continue;
-    }
-    CaseTable(out, o, options).write(options.show_origin);
-    if (o.guarantee) {
-      write_guarantee_table(out, *o.guarantee, DisplayUnits(options.system, options.system_forced, &*o.input, *o.rating));
-    } else if (!o.guarantee_error.empty()) {
-      out << "  guarantee not judged: " << escape_control(o.guarantee_error) << '\n';
-    }
+void write_case_table(std::ostream& out, const CaseOutcome& o, const TableOptions& options) {
+  if (!o.ok()) {
+    out << escape_control(o.id) << '\n';
+    if (options.show_origin && !o.origin.empty()) out << escape_control(fmt::format("  from {}", o.origin)) << '\n';
+    out << "  could not be rated: " << escape_control(o.error) << '\n';
+    for (const auto& w : o.warnings) out << "  warning: " << escape_control(w) << '\n';
+    return;
   }
-  for (const TestOutcome& t : tests) {
-    out << '\n' << escape_control(fmt::format("test of {} ({} test points)", t.origin, t.points.size())) << '\n';
-    if (t.result) {
-      machines::Rating shape;  // the machine chooses some units (a pump's flows in m3/h or gpm)
-      shape.machine = t.result->machine;
-      const DisplayUnits units(options.system, options.system_forced, t.units_from ? &*t.units_from : nullptr, shape);
-      write_guarantee_table(out, *t.result, units);
-    } else {
-      out << "  not judged: " << escape_control(t.error) << '\n';
-    }
-    for (const auto& w : t.warnings) out << "  warning: " << escape_control(w) << '\n';
+  CaseTable(out, o, options).write(options.show_origin);
+  if (o.guarantee) {
+    write_guarantee_table(out, *o.guarantee, DisplayUnits(options.system, options.system_forced, &*o.input, *o.rating));
+  } else if (!o.guarantee_error.empty()) {
+    out << "  guarantee not judged: " << escape_control(o.guarantee_error) << '\n';
   }
+}
+
+void write_test_table(std::ostream& out, const TestOutcome& t, const TableOptions& options) {
+  out << escape_control(fmt::format("test of {} ({} test points)", t.origin, t.points.size())) << '\n';
+  if (t.result) {
+    machines::Rating shape;  // the machine chooses some units (a pump's flows in m3/h or gpm)
+    shape.machine = t.result->machine;
+    const DisplayUnits units(options.system, options.system_forced, t.units_from ? &*t.units_from : nullptr, shape);
+    write_guarantee_table(out, *t.result, units);
+  } else {
+    out << "  not judged: " << escape_control(t.error) << '\n';
+  }
+  for (const auto& w : t.warnings) out << "  warning: " << escape_control(w) << '\n';
 }
 
 }  // namespace shaftwork::io

@@ -2,112 +2,118 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 #include <fmt/format.h>
 
+#include "polytropic_path.hpp"
 #include "shaftwork/error.hpp"
-#include "shaftwork/numerics/root.hpp"
 
 namespace shaftwork::machines {
 namespace {
 
-// dh/d(ln p) = p v(p, h) * factor along the path, where factor is 1/eta_p in
-// compression and eta_p in expansion; `wet` tells on which side of the saturation
-// line the point lies, since v(p, h) has a kink there.
-struct Slope {
-  double value;
-  bool wet;
-};
+// An entropy difference is known to about this many units in the last place of the larger
+// entropy (each state rounds its own).
+constexpr double kEntropyRounding = 16 * std::numeric_limits<double>::epsilon();
+// The polytropic efficiency must be resolved to this (relative) or the case is refused.
+constexpr double kResolution = 1e-6;
+// An efficiency this far above 1 is 1: IF97's wet states meet T ds = dh - v dp only to about
+// 3e-5 (its saturation line is an equation of its own), so an outlet on the isentrope can
+// need a path of efficiency a little above 1.
+constexpr double kInconsistency = 1e-4;
 
-Slope path_slope(const fluids::FluidModel& fluid, double x, double h, double factor) {
-  const double p = std::exp(x);
-  const fluids::State st = fluid.from_ph(p, h);
-  return {p / st.density * factor, st.is_wet()};
-}
-
-// One classical RK4 step from (x, h) over dx. A step across the saturation line
-// is halved, recursively, so that the kink sits in a step too short to matter
-// and the other steps keep fourth-order accuracy.
-double path_step(const fluids::FluidModel& fluid, double x, double h, double dx, double factor, int depth) {
-  const Slope k1 = path_slope(fluid, x, h, factor);
-  const Slope k2 = path_slope(fluid, x + 0.5 * dx, h + 0.5 * dx * k1.value, factor);
-  const Slope k3 = path_slope(fluid, x + 0.5 * dx, h + 0.5 * dx * k2.value, factor);
-  const Slope k4 = path_slope(fluid, x + dx, h + dx * k3.value, factor);
-  if (k1.wet != k4.wet && depth < 40) {
-    const double mid = path_step(fluid, x, h, 0.5 * dx, factor, depth + 1);
-    return path_step(fluid, x + 0.5 * dx, mid, 0.5 * dx, factor, depth + 1);
+void check_efficiency(double eta_p) {
+  if (!(eta_p > 0 && eta_p <= 1)) {
+    throw Error(ErrorKind::bad_input,
+                fmt::format("polytropic efficiency must be above 0 and at most 1, got {}", eta_p));
   }
-  return h + dx / 6.0 * (k1.value + 2 * k2.value + 2 * k3.value + k4.value);
 }
 
-// Integrates the path from (p1, h1) to p2 in `steps` equal steps of ln p.
-double integrate_path(const fluids::FluidModel& fluid, double p1, double h1, double p2, double factor,
-                      int steps) {
-  const double x1 = std::log(p1);
-  const double dx = (std::log(p2) - x1) / steps;
-  double h = h1;
-  for (int i = 0; i < steps; ++i) h = path_step(fluid, x1 + i * dx, h, dx, factor, 0);
-  return h;
-}
+// ln(p2/p1) without the rounding of the ratio: p2 - p1 is exact for p2 near p1.
+double log_ratio(double p1, double p2) { return std::log1p((p2 - p1) / p1); }
 
-double stepwise_outlet_enthalpy(const fluids::FluidModel& fluid, const fluids::State& inlet,
-                                double p2, double eta_p) {
-  const bool compression = p2 > inlet.pressure;
-  const double factor = compression ? 1.0 / eta_p : eta_p;
-  double previous = integrate_path(fluid, inlet.pressure, inlet.enthalpy, p2, factor, 8);
-  for (int steps = 16; steps <= 4096; steps *= 2) {
-    const double h = integrate_path(fluid, inlet.pressure, inlet.enthalpy, p2, factor, steps);
-    const double rise = std::fabs(h - inlet.enthalpy);
-    if (std::fabs(h - previous) <= 1e-10 * rise) return h;
-    previous = h;
+// The efficiency from the entropy rise `ds` [J/(kg K)] and the path integral `I` = int p v / T
+// d(ln p), which is positive (compression) or negative (expansion) with ln(p2/p1):
+// ds = (f - 1) I, f = 1/eta_p in compression and eta_p in expansion. Refuses an outlet
+// below the isentrope and a pressure change too small for its entropy rise to stand above
+// the rounding of the entropies; an entropy rise within that rounding is eta_p = 1.
+double efficiency_from_entropy_rise(double ds, double I, double entropy_scale, double p1, double p2) {
+  const double noise = kEntropyRounding * entropy_scale;
+  if (noise > kResolution * std::fabs(I)) {
+    throw Error(ErrorKind::bad_input,
+                fmt::format("outlet and inlet pressures differ by {:.3g} of the inlet pressure, too little for a "
+                            "polytropic efficiency: the entropy change they allow is within the rounding of the "
+                            "entropies; give pressures that differ by more",
+                            std::fabs(p2 - p1) / p1));
   }
-  throw Error(ErrorKind::no_convergence,
-              "polytropic path: the stepwise integration did not converge to 1e-10 within 4096 steps");
+  if (ds < -noise) {
+    throw Error(ErrorKind::bad_input,
+                fmt::format("the outlet entropy lies {:.6g} J/(kg K) below the inlet's: no polytropic "
+                            "efficiency at most 1 reaches this outlet",
+                            -ds));
+  }
+  if (ds <= noise) return 1.0;
+  const bool compression = p2 > p1;
+  return compression ? 1.0 / (1.0 + ds / I) : 1.0 - ds / -I;
 }
+
+double path_factor(bool compression, double eta_p) { return compression ? 1.0 / eta_p : eta_p; }
 
 }  // namespace
 
 double polytropic_outlet_enthalpy(const fluids::FluidModel& fluid, const fluids::State& inlet,
                                   double p2, double eta_p) {
+  check_efficiency(eta_p);
   const double p1 = inlet.pressure;
+  if (p2 == p1) return inlet.enthalpy;
+  const bool compression = p2 > p1;
   if (fluid.is_incompressible()) {
     // eta_p = eta_s: h2 = h1 + v dp / eta (compression) or h1 + eta v dp (expansion).
     const double vdp = (p2 - p1) / inlet.density;
-    return inlet.enthalpy + (p2 > p1 ? vdp / eta_p : vdp * eta_p);
+    return inlet.enthalpy + (compression ? vdp / eta_p : vdp * eta_p);
   }
   if (const auto R = fluid.ideal_gas_constant()) {
-    const double lnr = std::log(p2 / p1);
-    const double ds = p2 > p1 ? *R * (1.0 / eta_p - 1.0) * lnr : *R * (1.0 - eta_p) * -lnr;
+    const double ds = (path_factor(compression, eta_p) - 1.0) * *R * log_ratio(p1, p2);
     return fluid.from_ps(p2, inlet.entropy + ds).enthalpy;
   }
-  return stepwise_outlet_enthalpy(fluid, inlet, p2, eta_p);
+  if (eta_p == 1.0) return fluid.from_ps(p2, inlet.entropy).enthalpy;  // the isentrope itself
+  return detail::integrate_path(fluid, inlet, p2, path_factor(compression, eta_p)).outlet_enthalpy;
 }
 
 double polytropic_efficiency(const fluids::FluidModel& fluid, const fluids::State& inlet,
-                             const fluids::State& outlet, double isentropic_efficiency) {
+                             const fluids::State& outlet, double /*isentropic_efficiency*/) {
   const double p1 = inlet.pressure;
   const double p2 = outlet.pressure;
+  if (p2 == p1) {
+    throw Error(ErrorKind::bad_input, "a polytropic efficiency needs a pressure change; inlet and outlet "
+                                      "pressures are equal");
+  }
   const bool compression = p2 > p1;
   if (fluid.is_incompressible()) {
     const double vdp = (p2 - p1) / inlet.density;
     const double dh = outlet.enthalpy - inlet.enthalpy;
-    return compression ? vdp / dh : dh / vdp;
+    return std::min(1.0, compression ? vdp / dh : dh / vdp);
   }
+  const double ds = outlet.entropy - inlet.entropy;
+  const double scale = std::max({std::fabs(inlet.entropy), std::fabs(outlet.entropy), 1.0});
   if (const auto R = fluid.ideal_gas_constant()) {
-    const double ds = outlet.entropy - inlet.entropy;
-    const double lnr = std::log(p2 / p1);
-    return compression ? 1.0 / (1.0 + ds / (*R * lnr)) : 1.0 - ds / (*R * -lnr);
+    return efficiency_from_entropy_rise(ds, *R * log_ratio(p1, p2), scale, p1, p2);
   }
-  // General model: find eta_p whose path ends at the outlet enthalpy.
-  auto miss = [&](double eta) {
-    return stepwise_outlet_enthalpy(fluid, inlet, p2, eta) - outlet.enthalpy;
-  };
-  numerics::RootOptions options;
-  options.relative_tolerance = 1e-11;
-  // eta_p lies near eta_s (the reheat effect moves it by a few points); a bracket
-  // from half of eta_s keeps the trial paths in the neighbourhood of the real one.
-  const double low = isentropic_efficiency > 0 ? std::max(0.02, 0.5 * isentropic_efficiency) : 0.02;
-  return numerics::find_root(miss, low, 1.0, "polytropic efficiency", options).x;
+  // A real fluid: the integral I depends on the path, so the factor is solved along it. The
+  // same refusals as above, with I from the end states.
+  const double G1 = p1 / (inlet.density * inlet.temperature);
+  const double G2 = p2 / (outlet.density * outlet.temperature);
+  const double estimate = efficiency_from_entropy_rise(ds, 0.5 * (G1 + G2) * log_ratio(p1, p2), scale, p1, p2);
+  if (estimate == 1.0) return 1.0;
+  const double factor = detail::solve_path_factor(fluid, inlet, outlet).factor;
+  const double eta = compression ? 1.0 / factor : factor;
+  if (eta > 1.0 + kInconsistency) {
+    throw Error(ErrorKind::bad_input,
+                fmt::format("the outlet lies below the polytropic path of efficiency 1 (it would take {:.9g}): "
+                            "no polytropic efficiency at most 1 reaches it",
+                            eta));
+  }
+  return std::min(1.0, eta);
 }
 
 }  // namespace shaftwork::machines

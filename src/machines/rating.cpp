@@ -12,6 +12,7 @@
 #include "endpoints.hpp"
 #include "problem.hpp"
 #include "shaftwork/error.hpp"
+#include "shaftwork/fluids/compressibility_estimate.hpp"
 #include "shaftwork/machines/impeller.hpp"
 #include "shaftwork/machines/polytropic.hpp"
 
@@ -106,7 +107,8 @@ Solve choose_pattern(const Problem& problem, const SolvedFor& unknown) {
   }
   // An incompressible liquid's isentropic work v (p2 - p1) and its enthalpy rise do not
   // depend on the temperature level: flow, power and efficiency fix only T2 - T1.
-  if (problem.fluid.is_incompressible() && specific == SolvedFor{Q::inlet_temperature, Q::outlet_temperature}) {
+  if (problem.fluid.fluid_kind() == fluids::FluidKind::liquid &&
+      specific == SolvedFor{Q::inlet_temperature, Q::outlet_temperature}) {
     refuse("inlet.temperature and outlet.temperature cannot both be solved for an incompressible liquid: the "
            "pressures, flow, power and efficiency fix only the temperature rise; give one of the temperatures");
   }
@@ -178,6 +180,9 @@ void rate_efficiencies(const Problem& problem, const Endpoints& e, bool efficien
   r.specific_work = std::fabs(dh);
   r.head_polytropic = problem.compression ? r.efficiency_polytropic * r.specific_work
                                           : r.specific_work / r.efficiency_polytropic;
+  if (problem.fluid.fluid_kind() == fluids::FluidKind::real_gas) {
+    r.schultz = schultz_method(problem.fluid, e.inlet, e.outlet, s2);
+  }
 }
 
 // ---- Size and checks --------------------------------------------------------------------
@@ -233,17 +238,45 @@ void rate_pump(const Problem& problem, Rating& r) {
   }
 }
 
-// Above this pressure an ideal-gas result gets a warning: 1 MPa is where natural gas and
-// CO2 depart from p v = R T by a few percent near ambient temperature (common practice,
-// not a standard's figure).
+// An ideal gas is warned about where an estimate of the real gas's compressibility factor
+// departs from 1 by more than this (the error of p v = R T in density, and about as much in
+// power and flow), at the inlet or the outlet (issue 11; common practice, not a code's figure).
+constexpr double kIdealGasZTolerance = 0.01;
+// Without an estimate (constant cp, a species without critical data): above this pressure,
+// where natural gas and CO2 depart from p v = R T by a few percent near ambient temperature
+// (common practice, not a standard's figure).
 constexpr double kIdealGasWarningPressure = 1.0e6;  // Pa
 
-void add_warnings(const Problem& problem, const Endpoints& e, Rating& r) {
+// The ideal-gas warning, or "" when the gas is near ideal (or not an ideal-gas model).
+std::string ideal_gas_warning(const Problem& problem, const Rating& r) {
+  if (problem.fluid.fluid_kind() != fluids::FluidKind::ideal_gas) return {};
+  for (const State* s : {&r.inlet, &r.outlet}) {
+    const auto z = problem.fluid.estimated_compressibility(s->pressure, s->temperature);
+    if (!z) continue;
+    if (std::fabs(1 - *z) <= kIdealGasZTolerance) continue;
+    return fmt::format("the {} model is an ideal gas, and {} puts the compressibility factor at Z = {:.3f} at the {} "
+                       "({}, {}): density, power and flow are off by about {:.0f} %; rate it on peng-robinson or "
+                       "soave-redlich-kwong instead",
+                       problem.fluid.model_name(), fluids::kCompressibilityEstimate, *z,
+                       s == &r.inlet ? "inlet" : "outlet", problem.show(Q::inlet_pressure, s->pressure),
+                       problem.show(Q::inlet_temperature, s->temperature), 100 * std::fabs(1 - *z));
+  }
   const double p_max = std::max(r.inlet.pressure, r.outlet.pressure);
-  if (problem.fluid.ideal_gas_constant() && p_max > kIdealGasWarningPressure) {
-    r.warnings.push_back(fmt::format("the {} model is an ideal gas, and this machine runs up to {}: real-gas "
-                                     "effects are not modelled and can move efficiency and power by several percent",
-                                     problem.fluid.model_name(), problem.show(Q::outlet_pressure, p_max)));
+  if (!problem.fluid.estimated_compressibility(p_max, r.inlet.temperature) && p_max > kIdealGasWarningPressure) {
+    return fmt::format("the {} model is an ideal gas, and this machine runs up to {}: real-gas effects are not "
+                       "modelled and can move efficiency and power by several percent",
+                       problem.fluid.model_name(), problem.show(Q::outlet_pressure, p_max));
+  }
+  return {};
+}
+
+void add_warnings(const Problem& problem, const Endpoints& e, Rating& r) {
+  if (std::string warning = ideal_gas_warning(problem, r); !warning.empty()) r.warnings.push_back(std::move(warning));
+  if (const auto dew = problem.fluid.dew_point(r.outlet.pressure); dew && r.outlet.temperature < *dew) {
+    r.warnings.push_back(fmt::format("the outlet temperature {} lies below the dew point {} of the gas's water vapour: "
+                                     "water would condense, which the model does not describe",
+                                     problem.show(Q::outlet_temperature, r.outlet.temperature),
+                                     problem.show(Q::outlet_temperature, *dew)));
   }
   if (r.power_balance && std::fabs(r.power_balance->difference_percent) > kPowerBalanceWarningPercent) {
     r.warnings.push_back(fmt::format("the shaft power from the fluid side and the given power differ by {:+.1f} %: "
@@ -299,8 +332,10 @@ Rating rate(const RatingInput& input) {
   Rating r;
   r.machine = input.machine;
   r.model = problem.fluid.model_name();
+  r.fluid_kind = problem.fluid.fluid_kind();
   r.mechanical_efficiency = input.eta_m();
   r.solved_for = unknown;
+  r.humidity_ratio = problem.fluid.humidity_ratio();
   r.inlet = e.inlet;
   r.outlet = e.outlet;
   r.pressure_ratio = problem.compression ? e.outlet.pressure / e.inlet.pressure : e.inlet.pressure / e.outlet.pressure;

@@ -3,7 +3,8 @@
 //
 // Reads lines "pt p T", "ph p h", "ps p s" or "px p x" (SI: Pa, K, J/kg, J/(kg K); x is the
 // quality) and writes one line per input line:
-//   "T h s v x"     full precision, SI; x is "nan" for a single-phase state
+//   "T h s v x a"   full precision, SI; x is "nan" for a single-phase state, a the isobaric
+//                   expansivity (1/v)(dv/dT)_p (0 for a wet state)
 //   "error <message>" when the model refuses the state.
 #include <cmath>
 #include <cstdio>
@@ -40,8 +41,8 @@ int main() {
         std::printf("error unknown kind: %s\n", kind.c_str());
         continue;
       }
-      std::printf("%.17g %.17g %.17g %.17g %.17g\n", st.temperature, st.enthalpy, st.entropy,
-                  1.0 / st.density, st.quality.value_or(std::nan("")));
+      std::printf("%.17g %.17g %.17g %.17g %.17g %.17g\n", st.temperature, st.enthalpy, st.entropy,
+                  1.0 / st.density, st.quality.value_or(std::nan("")), st.expansivity);
     } catch (const shaftwork::Error& e) {
       std::printf("error %s\n", e.what());
     }

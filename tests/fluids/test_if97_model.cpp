@@ -1,5 +1,6 @@
 // fluids::IapwsIf97 as a FluidModel: region selection, the refinement of the backward
 // equations, wet states, round trips, identities and the exact messages of its errors.
+#include <algorithm>
 #include <cmath>
 #include <string>
 
@@ -151,6 +152,30 @@ TEST_CASE("round trips near the critical point (region 3)", "[if97][model][regio
     CHECK(water.from_ph(pt[0], st.enthalpy).temperature == Approx(pt[1]).epsilon(1e-9));
     CHECK(water.from_ps(pt[0], st.entropy).temperature == Approx(pt[1]).epsilon(1e-9));
   }
+}
+
+TEST_CASE("at the critical point (p, h) and (p, s) give back h and s to 1e-9", "[if97][model][region3]") {
+  // The critical point of IF97 (Sec. 3: 22.064 MPa, 647.096 K, 322 kg/m3); h there is
+  // 2087.546845 kJ/kg to seven digits (computed from region 3's equation, as below). There
+  // (dp/drho)_T is zero, and once a rounding below zero sent the solve to a fallback that
+  // returned a state 555 J/kg off.
+  const State critical = water.from_ph(22.064e6, 2087.546845e3);
+  CHECK(std::fabs(critical.enthalpy - 2087.546845e3) <= 1e-9 * 2087.546845e3);
+  CHECK(critical.temperature == Approx(647.096).epsilon(1e-7));
+  CHECK(critical.density == Approx(322.0).epsilon(1e-5));
+  CHECK(std::fabs(water.from_ps(22.064e6, critical.entropy).entropy - critical.entropy) <= 1e-9 * critical.entropy);
+  // A grid over 21.5-23 MPa and the enthalpies and entropies around the critical ones.
+  double worst = 0;
+  for (int i = 0; i <= 60; ++i) {
+    for (int j = 0; j <= 60; ++j) {
+      const double p = 21.5e6 + i * 1.5e6 / 60;
+      const double h = 1.7e6 + j * 0.8e6 / 60;
+      const double s = 3.8e3 + j * 1.2e3 / 60;
+      worst = std::max(worst, std::fabs(water.from_ph(p, h).enthalpy - h) / h);
+      worst = std::max(worst, std::fabs(water.from_ps(p, s).entropy - s) / s);
+    }
+  }
+  CHECK(worst <= 1e-9);
 }
 
 TEST_CASE("wet states from (p, s) and (p, h) carry a quality consistent with the lever rule",

@@ -397,3 +397,117 @@ TEST_CASE("a template holds one readable case") {
   CHECK_THROWS_WITH(io::read_batch_template(bad, "t.json", fluids),
                     "t.json: mass_flow: \"5 degC\": a temperature unit where a mass flow belongs");
 }
+
+namespace {
+
+// A plant-air log with uncertainties: the template states them by key (the flow meter's 1 %,
+// the barometer's own), the log has an uncertainty column for the outlet thermometer.
+const json kUncertainTemplate = json::parse(R"({
+  "id": "PAC-3 log template", "machine": "compressor", "fluid": "air",
+  "site": { "barometric_pressure": { "value": "99.1 kPa", "uncertainty": "0.1 kPa" } },
+  "mechanical_efficiency": 0.975,
+  "uncertainty": { "inlet.temperature": "0.3 K", "outlet.pressure": "0.25 %", "mass_flow": "1 %",
+                   "outlet.temperature": "0.8 K" } })");
+
+const std::string kUncertainLog =
+    "id,inlet.pressure [barg],inlet.temperature [degC],outlet.pressure [barg],outlet.temperature [degC],"
+    "mass_flow [t/h],uncertainty.outlet.temperature [K],uncertainty.inlet.pressure [kPa]\n"
+    "P-1,-0.018,24.0,2.10,172.5,5.43,0.5,0.05\n"
+    "P-2,-0.020,25.1,2.12,174.9,5.40,,0.05\n";  // no outlet-thermometer cell: the template's 0.8 K
+
+// The JSON case of a row of kUncertainLog, with the same uncertainties written on its values.
+json uncertain_case(const std::string& p1, const std::string& t1, const std::string& p2, const std::string& t2,
+                    const std::string& m, const std::string& u_t2) {
+  json c = kUncertainTemplate;
+  c.erase("uncertainty");
+  c["inlet"] = {{"pressure", {{"value", p1 + " barg"}, {"uncertainty", "0.05 kPa"}}},
+                {"temperature", {{"value", t1 + " degC"}, {"uncertainty", "0.3 K"}}}};
+  c["outlet"] = {{"pressure", {{"value", p2 + " barg"}, {"uncertainty", "0.25 %"}}},
+                 {"temperature", {{"value", t2 + " degC"}, {"uncertainty", u_t2}}}};
+  c["mass_flow"] = {{"value", m + " t/h"}, {"uncertainty", "1 %"}};
+  return c;
+}
+
+}  // namespace
+
+TEST_CASE("uncertainty columns and template statements: the same U as the rows rated as JSON cases") {
+  const Run run = run_batch(kUncertainLog, kUncertainTemplate, io::BatchFormat::jsonl);
+  const auto lines = lines_of(run.output);
+  REQUIRE(lines.size() == 2);
+  const std::vector<json> cases = {uncertain_case("-0.018", "24.0", "2.10", "172.5", "5.43", "0.5 K"),
+                                   uncertain_case("-0.020", "25.1", "2.12", "174.9", "5.40", "0.8 K")};
+  for (std::size_t i = 0; i < cases.size(); ++i) {
+    io::FluidFactory fluids;
+    const ordered_json expected = io::result_json(io::rate_case(cases[i], 0, fluids));
+    const ordered_json got = ordered_json::parse(lines[i]);
+    REQUIRE(got["status"] == "ok");
+    CHECK(got["uncertainty"] == expected["uncertainty"]);
+    CHECK(got["uncertainty_contributions"] == expected["uncertainty_contributions"]);
+    CHECK(got["uncertainty"]["efficiency.isentropic"].get<double>() > 0.002);
+  }
+  // The first row's thermometer is the better one: its efficiency is known more closely.
+  CHECK(ordered_json::parse(lines[0])["uncertainty"]["efficiency.isentropic"].get<double>() <
+        ordered_json::parse(lines[1])["uncertainty"]["efficiency.isentropic"].get<double>());
+}
+
+TEST_CASE("csv with uncertainties: a column uncertainty.<key> [unit] after the results for each of them") {
+  const Run run = run_batch(kUncertainLog + "P-3,-0.018,24.0,2.10,172.5,5.43,-1,0.05\n", kUncertainTemplate,
+                            io::BatchFormat::csv);
+  const auto lines = lines_of(run.output);
+  REQUIRE(lines.size() == 4);
+  CHECK(lines[0].find(",pressure_ratio,uncertainty.outlet_isentropic.temperature [degC],uncertainty.volume_flow "
+                      "[m3/h],uncertainty.power [kW],uncertainty.fluid_power [kW],uncertainty.efficiency.isentropic,"
+                      "uncertainty.efficiency.polytropic,uncertainty.head.isentropic [kJ/kg],uncertainty.head."
+                      "polytropic [kJ/kg],uncertainty.specific_work [kJ/kg],uncertainty.pressure_ratio,warnings\r") !=
+        std::string::npos);
+  // The efficiency's U in the csv is the JSON's, to ten digits.
+  io::FluidFactory fluids;
+  const ordered_json r =
+      io::result_json(io::rate_case(uncertain_case("-0.018", "24.0", "2.10", "172.5", "5.43", "0.5 K"), 0, fluids));
+  char u_eta[32];
+  std::snprintf(u_eta, sizeof u_eta, "%.6g", r["uncertainty"]["efficiency.isentropic"].get<double>());
+  const std::vector<std::string> cells = io::parse_csv(run.output)[1].fields;
+  const std::vector<std::string> header = io::parse_csv(run.output)[0].fields;
+  const auto column = std::find(header.begin(), header.end(), "uncertainty.efficiency.isentropic") - header.begin();
+  char cell[32];
+  std::snprintf(cell, sizeof cell, "%.6g", std::stod(cells[static_cast<std::size_t>(column)]));
+  CHECK(std::string(cell) == u_eta);
+  // A negative uncertainty is the row's error.
+  CHECK(lines[3].rfind("P-3,-0.018,24.0,2.10,172.5,5.43,-1,0.05,error,\"line 4, column \"\"uncertainty.outlet."
+                       "temperature [K]\"\": \"\"-1\"\": an uncertainty cannot be negative\",",
+                       0) == 0);
+  // Without any uncertainty the csv is as before: no uncertainty columns.
+  CHECK(lines_of(run_batch("id,outlet.temperature [degC]\nP-1,172.5\n", kAirTemplate, io::BatchFormat::csv).output)[0]
+            .find("uncertainty") == std::string::npos);
+}
+
+TEST_CASE("uncertainty columns and statements that no value of the rows has are refused") {
+  auto refusal = [](const std::string& csv, const json& templ) {
+    try {
+      run_batch(csv, templ, io::BatchFormat::csv);
+    } catch (const Error& e) {
+      return std::string(e.what());
+    }
+    return std::string("(accepted)");
+  };
+  CHECK(refusal("outlet.temperature [degC],uncertainty.power [%]\n", kAirTemplate) ==
+        "points.csv: line 1, column 2 \"uncertainty.power [%]\": neither a column nor the template gives power");
+  CHECK(refusal("outlet.temperature [degC],uncertainty.outlet.temperature [kPa]\n", kAirTemplate) ==
+        "points.csv: line 1, column 2 \"uncertainty.outlet.temperature [kPa]\": a pressure unit where a "
+        "temperature belongs");
+  CHECK(refusal("outlet.temperature [degC],uncertainty.outlet.temperature\n", kAirTemplate) ==
+        "points.csv: line 1, column 2 \"uncertainty.outlet.temperature\": an uncertainty needs its unit in square "
+        "brackets, as in \"uncertainty.outlet.temperature [degC]\", or \"[%]\" of the reading");
+  CHECK(refusal("outlet.temperature [degC],uncertainty.outlet.temp [K]\n", kAirTemplate) ==
+        "points.csv: line 1, column 2 \"uncertainty.outlet.temp [K]\": \"outlet.temp\" names no case value, such "
+        "as outlet.temperature");
+  CHECK(refusal("outlet.temperature [degC],uncertainty.outlet.temperature [K],uncertainty.outlet.temperature [%]\n",
+                kAirTemplate) ==
+        "points.csv: line 1, column 3 \"uncertainty.outlet.temperature [%]\": column 2 "
+        "\"uncertainty.outlet.temperature [K]\" gives it already; keep one");
+  json templ = kUncertainTemplate;
+  templ["uncertainty"]["power"] = "1.5 %";
+  CHECK(refusal(kUncertainLog, templ) ==
+        "template.json: uncertainty.power: neither the template nor a column of points.csv gives power, so there "
+        "is no reading to state an uncertainty for");
+}

@@ -154,8 +154,7 @@ TEST_CASE("bad values are refused naming the key") {
         "fluid: constant-cp fluid: give exactly two of cp, cv, k, R, molar_mass (got 1)");
   CHECK(refusal(R"({"machine": "compressor", "fluid": {"model": "redlich-kwong"}})") ==
         "fluid.model: unknown model \"redlich-kwong\"; models are constant-cp, nasa-polynomial, peng-robinson, "
-        "soave-redlich-kwong, iapws-if97, "
-        "incompressible");
+        "soave-redlich-kwong, iapws-if97, incompressible, humid-air");
 }
 
 TEST_CASE("mixture fractions off by less than 1 % are scaled with a warning") {
@@ -242,4 +241,32 @@ TEST_CASE("standard volume flows use the gas's own molar mass at the unit's refe
   CHECK(*outcomes[1].rating->mass_flow == Approx(1000 * mol_per_scf * M / 60).epsilon(1e-9));
   // Sm3: 15 degC, 101.325 kPa (ISO 13443).
   CHECK(*outcomes[2].rating->mass_flow == Approx(101325.0 / (R * 288.15) * M).epsilon(1e-9));
+}
+
+TEST_CASE("humid air takes its water content at the inlet state and warns below the dew point") {
+  io::FluidFactory fluids;
+  const json doc = json::parse(R"({"cases": [
+      {"id": "wet", "machine": "compressor", "fluid": {"model": "humid-air", "relative_humidity": "70 %"},
+       "site": {"barometric_pressure": "1002 mbar"},
+       "inlet": {"pressure": "-25 mbarg", "temperature": "30 degC"}, "outlet": {"pressure": "2.2 barg"},
+       "efficiency": 0.8},
+      {"id": "cold exhaust", "machine": "turbine", "fluid": {"model": "humid-air", "humidity_ratio": 0.012},
+       "inlet": {"pressure": "3 bar", "temperature": "40 degC"}, "outlet": {"pressure": "1 bar"}, "efficiency": 0.8},
+      {"id": "no inlet", "machine": "compressor", "fluid": {"model": "humid-air", "relative_humidity": "50 %"},
+       "outlet": {"pressure": "2 bar"}}]})");
+  const auto outcomes = io::rate_document(doc, "doc", fluids);
+  REQUIRE(outcomes[0].ok());
+  // W = (M_w / M_da) p_w / (p - p_w), p_w = phi p_ws(30 degC): p_ws = 4246.69 Pa (python3-iapws,
+  // IAPWS97(T=303.15, x=0).P), p = 100.2 - 2.5 kPa, M_da = 28.96512 g/mol (the NASA air record's
+  // composition), M_w = 18.01528 g/mol: W = 0.019518 kg/kg. No enhancement factor (docs/units.md).
+  CHECK(*outcomes[0].rating->humidity_ratio == Approx(0.019518).epsilon(2e-4));
+  // Expanded from 3 bar, 40 degC to 1 bar at 0.8, the exhaust is near -40 degC, below the dew
+  // point of 0.012 kg/kg at 1 bar (about 16 degC): the model keeps the water as vapour, and says so.
+  REQUIRE(outcomes[1].ok());
+  bool warned = false;
+  for (const auto& w : outcomes[1].warnings) warned = warned || w.find("lies below the dew point") != std::string::npos;
+  CHECK(warned);
+  CHECK_FALSE(outcomes[2].ok());
+  CHECK(outcomes[2].error ==
+        "fluid: humid-air takes its water content at the inlet state: give inlet.pressure and inlet.temperature");
 }

@@ -130,13 +130,13 @@ TEST_CASE("a file's guarantee is judged on all its cases, and reported beside th
   CHECK(*p2.converted > 2.2e5);
   CHECK(*p2.converted < 2.5e5);
   std::ostringstream out;
-  io::write_json(out, rated.cases, {*rated.test});
+  io::write_results(out, io::ResultFormat::json, rated.cases, {}, {*rated.test});
   const json written = json::parse(out.str());
   CHECK(written["test"]["file"] == "test.json");
   CHECK(written["test"]["guarantee"]["checks"][0]["tolerance_percent"] == json::parse("[-2.0, null]"));
   CHECK(written["results"].size() == 3);
   std::ostringstream table;
-  io::write_table(table, rated.cases, {}, {*rated.test});
+  io::write_results(table, io::ResultFormat::table, rated.cases, {}, {*rated.test});
   CHECK(table.str().find("test of test.json (3 test points)\n  guarantee: ") != std::string::npos);
 
   // A point that cannot be rated leaves the test unjudged, by name.
@@ -159,7 +159,7 @@ TEST_CASE("csv: the guarantee's columns after the results") {
   json c = air_case("T1", 2.5, 3.0);
   c["guarantee"] = json{{"speed", "9000 rpm"}, {"mass_flow", "3 kg/s"}, {"outlet", {{"pressure", "2.6 bar"}}}};
   std::ostringstream out;
-  io::write_csv(out, {io::rate_case(c, 0, fluids)}, io::UnitSystem::si);
+  io::write_results(out, io::ResultFormat::csv, {io::rate_case(c, 0, fluids)});
   const std::string text = out.str();
   CHECK(text.find(",guarantee.verdict,guarantee.outlet.pressure.converted [kPa],guarantee.outlet.pressure."
                   "deviation_percent,guarantee.outlet.pressure.verdict,guarantee.error,warnings\r\n") != std::string::npos);

@@ -5,12 +5,14 @@ Usage: test_if97_crosscheck.py <shaftwork binary> <if97_probe binary>
 
 Random states (fixed seed) over regions 1, 2, 3 and 5 and along the saturation line are
 computed by python3-iapws's IAPWS97 and by shaftwork (through the test-only if97_probe,
-one process for all states), and h, s and v are compared:
+one process for all states), and h, s, v and, for single-phase states, the isobaric
+expansivity alpha_v = (1/v)(dv/dT)_p (IAPWS97.alfav) are compared:
   relative difference <= 1e-8 in regions 1, 2 and 5,
   relative difference <= 1e-6 in region 3 and along the saturation line (wet states).
 "Relative" is |ours - theirs| / max(|theirs|, floor) with floor = R*T for h and R for s
-(R = 461.526 J/(kg K)): h and s are near 0 close to IF97's reference state (liquid at the
-triple point), where a relative difference means nothing.
+(R = 461.526 J/(kg K)), and 1e-3/T for alpha_v: h and s are near 0 close to IF97's reference
+state (liquid at the triple point), and alpha_v passes through 0 in liquid water at 277 K,
+where a relative difference means nothing.
 
 Where python3-iapws departs from the IAPWS releases, the releases win and the state is
 not compared with python3-iapws as is; each rule is applied in code below (rule_* names)
@@ -105,14 +107,14 @@ class Case:
     def __init__(self, label, query, ref, tol, T):
         self.label = label
         self.query = query  # probe line, SI
-        self.ref = ref  # (h kJ/kg, s kJ/(kg K), v m3/kg, x or None)
+        self.ref = ref  # (h kJ/kg, s kJ/(kg K), v m3/kg, x or None, alpha_v 1/K or None)
         self.tol = tol
         self.T = T
 
 
 def props(st):
     x = st.x if st.region == 4 else None
-    return (st.h, st.s, st.v, x)
+    return (st.h, st.s, st.v, x, None if x is not None else st.alfav)
 
 
 cases = []
@@ -142,7 +144,7 @@ for i in range(WET_STATES):
         h = liquid.h + x * (vapour.h - liquid.h)
         s = liquid.s + x * (vapour.s - liquid.s)
         v = liquid.v + x * (vapour.v - liquid.v)
-        ref = (h, s, v, x)
+        ref = (h, s, v, x, None)
         refs = {"px": ref, "ph": ref, "ps": ref}
     else:
         st = IAPWS97(P=p, x=x)
@@ -178,10 +180,12 @@ for case, answer in zip(cases, answers):
     if answer.startswith("error"):
         problem = answer
     else:
-        T, h, s, v, x = (float(f) for f in answer.split())
+        T, h, s, v, x, alpha = (float(f) for f in answer.split())
         h, s = h / 1e3, s / 1e3
-        ref_h, ref_s, ref_v, ref_x = case.ref
+        ref_h, ref_s, ref_v, ref_x, ref_alpha = case.ref
         diffs = {"h": relative(h, ref_h, R * case.T), "s": relative(s, ref_s, R), "v": relative(v, ref_v, 0.0)}
+        if ref_alpha is not None:
+            diffs["alpha_v"] = relative(alpha, ref_alpha, 1e-3 / case.T)
         if (ref_x is None) != math.isnan(x):
             problem = f"phase: ours x={x}, theirs x={ref_x}"
         elif ref_x is not None and abs(x - ref_x) > case.tol:

@@ -31,6 +31,7 @@ class ConstantCpGas final : public FluidModel {
   State from_ph(double p, double h) const override;
   State from_ps(double p, double s) const override;
   std::string model_name() const override { return "constant-cp"; }
+  FluidKind fluid_kind() const override { return FluidKind::ideal_gas; }
   std::string description() const override;
   Range temperature_range() const override { return {1.0, 10000.0}; }
   Range pressure_range() const override { return {1e-3, 1e9}; }

@@ -60,6 +60,7 @@ class CubicGas final : public FluidModel {
   State from_ph(double p, double h) const override;
   State from_ps(double p, double s) const override;
   std::string model_name() const override;
+  FluidKind fluid_kind() const override { return FluidKind::real_gas; }
   std::string description() const override;
   Range temperature_range() const override;
   Range pressure_range() const override;

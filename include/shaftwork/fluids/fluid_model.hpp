@@ -16,6 +16,22 @@
 
 namespace shaftwork::fluids {
 
+// Saturated liquid and vapour at one pressure (wet states of quality 0 and 1).
+struct Saturated {
+  State liquid;
+  State vapour;
+};
+
+// What a model describes; the machine layer chooses its methods by it (the polytropic
+// path exact from s°(T) for an ideal gas, stepwise otherwise; Schultz and compressibility
+// reported for a real gas; eta_p = eta_s for a liquid).
+enum class FluidKind {
+  ideal_gas,    // p v = R T, h = h(T): constant cp, NASA polynomials, humid air
+  real_gas,     // one gas phase of an equation of state: the cubic models
+  water_steam,  // a liquid, a vapour and the wet region between: IAPWS-IF97
+  liquid,       // density independent of the state: incompressible
+};
+
 class FluidModel {
  public:
   virtual ~FluidModel() = default;
@@ -27,6 +43,13 @@ class FluidModel {
   virtual State from_ph(double p, double h) const = 0;
   // State at pressure p [Pa] and specific entropy s [J/(kg K)]; T converges to 1e-10 relative.
   virtual State from_ps(double p, double s) const = 0;
+
+  virtual FluidKind fluid_kind() const = 0;
+
+  // For ideal-gas models of a known composition: an estimate of the compressibility factor
+  // Z the real gas has at (p, T) (fluids/compressibility_estimate.hpp), so that a rating
+  // can warn where the ideal gas is off. Empty for other models and unknown compositions.
+  virtual std::optional<double> estimated_compressibility(double /*p*/, double /*T*/) const { return std::nullopt; }
 
   // The model's name as case files write it: "constant-cp", "nasa-polynomial",
   // "iapws-if97", "incompressible".
@@ -50,6 +73,16 @@ class FluidModel {
   // Wet state at pressure p [Pa] and vapour mass fraction `quality` in [0, 1].
   // Single-phase models throw not_available.
   virtual State from_p_quality(double p, double quality) const;
+  // The saturated liquid and vapour at p: from_p_quality(p, 0) and from_p_quality(p, 1),
+  // with the same range and errors. A model that finds both at once overrides it.
+  virtual Saturated saturated(double p) const { return {from_p_quality(p, 0.0), from_p_quality(p, 1.0)}; }
+
+  // Moist gases (humid air): the humidity ratio [kg water / kg dry gas] the model was
+  // made with, and the dew point [K] of its water vapour at pressure p [Pa]; the model
+  // keeps the water as vapour below it, so a state there is worth a warning. Empty for
+  // every other model.
+  virtual std::optional<double> humidity_ratio() const { return std::nullopt; }
+  virtual std::optional<double> dew_point(double /*p*/) const { return std::nullopt; }
 
   // True when density does not depend on state (incompressible liquid): the
   // polytropic efficiency then equals the isentropic one.

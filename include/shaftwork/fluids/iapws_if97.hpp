@@ -20,6 +20,9 @@
 // falls between the saturated liquid and vapour, and from from_p_quality. They carry the
 // quality x and the mixture's h, s and density (v = vf + x (vg - vf)); cp and cv are not
 // defined in the two-phase region and are set to 0 (State::is_wet() tells callers).
+// State::region is IF97's region number (1, 2, 3, 5) for a single phase; wet states are
+// region 4 up to psat(623.15 K) and 43 above, where the saturated liquid and vapour come from
+// region 3 instead of regions 1 and 2.
 #pragma once
 
 #include <optional>
@@ -46,11 +49,14 @@ class IapwsIf97 final : public FluidModel {
   // Wet state at p [Pa] (611.212677 Pa to 22.064 MPa, exclusive at the top) and quality
   // x in [0, 1]; x = 0 and x = 1 give the saturated liquid and vapour, still marked wet.
   State from_p_quality(double p, double quality) const override;
+  // Both ends of the saturation line at p from one evaluation of it.
+  Saturated saturated(double p) const override;
 
   // Saturation pressure ps(T) [Pa] (IF97 Eq. 30), 273.15 K <= T <= 647.096 K.
   static double saturation_pressure(double T);
 
   std::string model_name() const override { return "iapws-if97"; }
+  FluidKind fluid_kind() const override { return FluidKind::water_steam; }
   std::string description() const override;
   Range temperature_range() const override { return {273.15, 2273.15}; }
   // 0 stands for "above 0": IF97's region 2 reaches down to the ideal-gas limit. Above

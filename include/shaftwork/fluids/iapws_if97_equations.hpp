@@ -45,6 +45,8 @@ struct Point {
   double cp = 0;   // J/(kg K)
   double cv = 0;   // J/(kg K)
   double w = 0;    // m/s, speed of sound
+  double alpha_v = 0;  // 1/K, isobaric expansivity (1/v)(dv/dT)_p (IF97 Tables 3, 31, 39)
+  int region = 0;  // the IF97 region whose basic equation gave the point: 1, 2, 3 or 5
   double u() const { return h - p / rho; }  // J/kg, specific internal energy
 };
 

@@ -19,6 +19,7 @@ class IncompressibleLiquid final : public FluidModel {
   State from_ph(double p, double h) const override;
   State from_ps(double p, double s) const override;
   std::string model_name() const override { return "incompressible"; }
+  FluidKind fluid_kind() const override { return FluidKind::liquid; }
   std::string description() const override;
   Range temperature_range() const override { return {1.0, 10000.0}; }
   Range pressure_range() const override { return {1e-3, 1e10}; }

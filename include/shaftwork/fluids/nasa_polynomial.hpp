@@ -120,10 +120,14 @@ class NasaPolynomialGas final : public FluidModel {
   State from_ph(double p, double h) const override;
   State from_ps(double p, double s) const override;
   std::string model_name() const override { return "nasa-polynomial"; }
+  FluidKind fluid_kind() const override { return FluidKind::ideal_gas; }
   std::string description() const override;
   Range temperature_range() const override;
   Range pressure_range() const override;
   std::optional<double> ideal_gas_constant() const override;
+  // Peng-Robinson on the composition with the built-in critical constants
+  // (compressibility_estimate.hpp); empty when a species has none.
+  std::optional<double> estimated_compressibility(double p, double T) const override;
 
   // Mole fractions after renormalisation, by species name, in the order given.
   std::vector<std::pair<std::string, double>> mole_fractions() const;

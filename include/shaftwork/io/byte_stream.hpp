@@ -6,6 +6,8 @@
 #pragma once
 
 #include <cstddef>
+#include <ostream>
+#include <streambuf>
 #include <string>
 #include <string_view>
 #include <utility>
@@ -66,5 +68,33 @@ class FdSink final : public ByteSink {
 
 // The sink that writes an output file whole or not at all is io::OutputFile
 // (atomic_file.hpp).
+
+// Standard output as a sink (not owned, never closed).
+ByteSink& standard_output();
+
+// A std::ostream that writes into a ByteSink through a 64 kB buffer, for writers that
+// speak streams. A failure of the sink comes out of the stream operation that met it as
+// the sink's own shaftwork::Error.
+class SinkStream final : public std::ostream {
+ public:
+  explicit SinkStream(ByteSink& sink);
+  SinkStream(const SinkStream&) = delete;
+  SinkStream& operator=(const SinkStream&) = delete;
+  ~SinkStream() override;
+
+ private:
+  class Buffer final : public std::streambuf {
+   public:
+    explicit Buffer(ByteSink& sink);
+    int sync() override;
+    int_type overflow(int_type c) override;
+
+   private:
+    void drain();
+    ByteSink& sink_;
+    std::string data_;
+  };
+  Buffer buffer_;
+};
 
 }  // namespace shaftwork::io

@@ -24,8 +24,21 @@ inline constexpr std::string_view kIdKey = "id";
 inline constexpr std::string_view kMachineKey = "machine";
 inline constexpr std::string_view kFluidKey = "fluid";
 inline constexpr std::string_view kNoteKey = "note";
+inline constexpr std::string_view kUncertaintyKey = "uncertainty";
+// The expected results of `shaftwork check` (io/expectations.hpp reads them; rating ignores them).
+inline constexpr std::string_view kExpectKey = "expect";
 // A case's own guarantee (io/guarantee_reader.hpp); at the top of a file, the file's.
 inline constexpr std::string_view kGuaranteeKey = "guarantee";
+
+// A stated expanded uncertainty (k = 2, about 95 %) of a given value, as on an instrument
+// datasheet: a percent of the reading ("0.25 %") or a difference in the value's own
+// dimension ("0.3 K", "0.5 degF"). docs/uncertainty.md describes the forms.
+struct StatedUncertainty {
+  machines::Input input;
+  bool relative = false;  // a fraction of the reading as written (0.0025 for "0.25 %")
+  double value = 0;       // that fraction, or the difference in SI (0.3 for "0.3 K"); >= 0
+  std::string written;    // as stated: "0.25 %", "0.3 K"
+};
 
 struct GivenValue {
   machines::Input input;
@@ -33,6 +46,8 @@ struct GivenValue {
   bool on_barometer = false;  // read against the site barometer: moves with it, one for one
   std::string written;        // as the user wrote it: "2.10 barg", "0.82", "101325 Pa"
   std::string unit;           // the unit symbol written ("barg"), "" for a plain SI number
+  // Its own, or one stated by key for the case (or file, or batch template); empty: none.
+  std::optional<StatedUncertainty> uncertainty = {};
 };
 
 struct CaseInput {
@@ -43,12 +58,19 @@ struct CaseInput {
   std::shared_ptr<const fluids::FluidModel> fluid;
   std::string fluid_label;  // the fluid's name, or a short readable description
   std::vector<GivenValue> given;  // in the order of machines::kInputs
+  std::string standard_reference;  // a standard volume flow's reference, in words ("" without one)
   std::vector<std::string> warnings;
+  // The case's "uncertainty" object by dotted key: the statements the case made for its
+  // given values (a batch template's also cover the columns' values).
+  std::vector<StatedUncertainty> uncertainty_by_key;
 
   // The given value of `input`, or nullptr.
   const GivenValue* find(machines::Input input) const;
   // The site barometer [Pa]: given, or one standard atmosphere.
   double barometer() const;
+  // What other values are read against: the barometer (when given) and the site's
+  // standard conditions (when given).
+  units::ParseContext context() const;
   // The unit the user wrote for some given value of dimension `d` ("" if none): results
   // of that dimension are shown in it.
   std::string unit_used_for(units::Dimension d) const;

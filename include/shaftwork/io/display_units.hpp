@@ -7,6 +7,7 @@
 #pragma once
 
 #include <array>
+#include <optional>
 #include <string>
 #include <string_view>
 
@@ -35,11 +36,18 @@ class DisplayUnits {
   // "217.43 degC", "0.7779", "1.5077 kg/s": the value in this case's unit for its
   // dimension, at the row's precision.
   std::string text(double si, units::Dimension d, Precision precision) const;
+  // "217.43 ± 0.41 degC": the same with an expanded uncertainty `u_si` (a difference) to
+  // two significant digits (GUM 7.2.6); "± n/a" when it is not available.
+  std::string text(double si, std::optional<double> u_si, units::Dimension d, Precision precision) const;
 
  private:
   std::array<std::string, 16> units_;
   double barometer_;
 };
+
+// A difference (an uncertainty) of `si` in `unit`: over the unit's scale, without its offset
+// or barometer (0.3 K is 0.54 degF, 5000 Pa is 0.05 barg). "" is a fraction: unchanged.
+double difference_from_si(double si, std::string_view unit);
 
 // `value` at `precision`: significant digits without trailing zeros, or fixed decimals.
 std::string format_number(double value, Precision precision);

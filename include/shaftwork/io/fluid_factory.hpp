@@ -1,14 +1,15 @@
 // shaftwork/io/fluid_factory.hpp — fluid models from names and JSON fluid objects.
 //
 // A fluid is a name from data/fluids.txt ("air", "water", ...) or an object
-// { "model": "constant-cp" | "nasa-polynomial" | "iapws-if97" | "incompressible", ... }
-// as the contract describes. Models are immutable; the factory hands out one shared
+// { "model": ..., ... } as the contract describes (src/io/fluid_builders.cpp holds the
+// table of models). Models are immutable; the factory hands out one shared
 // model per distinct definition, so a batch of a million cases builds air once.
 #pragma once
 
 #include <map>
 #include <memory>
 #include <mutex>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -25,9 +26,25 @@ struct NamedFluid {
   std::string note;           // the comment lines just above it in data/fluids.txt
 };
 
+// A model a fluid object may name: its name, the keys of its object and one line on it.
+struct FluidModelInfo {
+  std::string name;
+  std::vector<std::string> keys;  // "model" first
+  std::string summary;
+};
+// Every model, in the order listings show them.
+std::vector<FluidModelInfo> fluid_models();
+
 // The named fluids of data/fluids.txt, in file order. Throws bad_input if the
 // embedded file is malformed (a build defect, caught by the tests).
 const std::vector<NamedFluid>& named_fluids();
+
+// The state a model that depends on it is made at: humid air at a relative humidity takes
+// its water content at the case's inlet pressure [Pa] and temperature [K].
+struct FluidSite {
+  std::optional<double> pressure;
+  std::optional<double> temperature;
+};
 
 class FluidFactory {
  public:
@@ -42,7 +59,7 @@ class FluidFactory {
   // The model for a fluid name or object. `path` is the JSON path for messages
   // ("fluid"); warnings (renormalised fractions) are appended to `warnings`.
   std::shared_ptr<const fluids::FluidModel> make(const nlohmann::json& fluid, const std::string& path,
-                                                 std::vector<std::string>& warnings);
+                                                 std::vector<std::string>& warnings, const FluidSite& site = {});
 
   // A short label for results: the name of a named fluid or species, else the model's
   // own description (an inline mixture lists its species and mole fractions).
@@ -52,7 +69,7 @@ class FluidFactory {
 
  private:
   std::shared_ptr<const fluids::FluidModel> build(const nlohmann::json& fluid, const std::string& path,
-                                                  std::vector<std::string>& warnings);
+                                                  const FluidSite& site, std::vector<std::string>& warnings);
 
   std::shared_ptr<fluids::SpeciesLibrary> species_;
   struct Built {

@@ -22,4 +22,10 @@ char* format_significant(char* out, double value, int digits);
 // Appends format_significant's text to `text`.
 void append_significant(std::string& text, double value, int digits);
 
+// An SI value rounded to 15 significant digits, as results are written: the digits a double
+// holds for sure, so that unit conversions leave no noise in the last place (4120800, not
+// 4120800.0000000005). Zero and non-finite values are returned as they are (-0 as 0).
+// Fewer `digits` for figures known to less (an uncertainty: 6).
+double rounded_for_output(double x, int digits = 15);
+
 }  // namespace shaftwork::io

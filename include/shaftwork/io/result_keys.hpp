@@ -9,7 +9,9 @@
 // row (and the code that computes it).
 #pragma once
 
+#include <cstddef>
 #include <optional>
+#include <string>
 #include <string_view>
 #include <vector>
 
@@ -40,6 +42,7 @@ enum class Applies {
   pump,       // pumps: head as a height, hydraulic power
   speed,      // cases that give the shaft speed
   impeller,   // compressors that give the speed and the impeller: tip speed, flow coefficient, Mach number
+  real_gas,   // real-gas models: compressibility, the Schultz method
 };
 
 struct ResultKey {
@@ -56,9 +59,20 @@ struct ResultKey {
 
 // Every row, in output order (the JSON objects follow it).
 const std::vector<ResultKey>& result_keys();
+// The position of a row in result_keys().
+std::size_t row_of(const ResultKey& k);
+
+// The numbers of one result by row of result_keys(), each as result_json writes it
+// (rounded_for_output), empty where the row does not apply. A non-finite value is kept
+// as it is (result_json turns the case into an error naming it).
+using ResultNumbers = std::vector<std::optional<double>>;
+ResultNumbers result_numbers(const machines::Rating& rating);
 // The row of a dotted key, or nullptr.
 const ResultKey* find_result_key(std::string_view key);
 // Every key, comma-separated, for messages.
 std::string result_key_list();
+// The message for a key that is none: "\"efficiency.isentropc\" is no result key; did you
+// mean efficiency.isentropic?", or with no key near it "...; the keys are: " and the list.
+std::string no_result_key(std::string_view key);
 
 }  // namespace shaftwork::io

@@ -2,6 +2,7 @@
 // for a person, and CSV for spreadsheets. Every writer takes its keys from result_keys().
 #pragma once
 
+#include <memory>
 #include <optional>
 #include <ostream>
 #include <string>
@@ -12,6 +13,7 @@
 
 #include "shaftwork/io/case_input.hpp"
 #include "shaftwork/io/display_units.hpp"
+#include "shaftwork/io/uncertainty.hpp"
 #include "shaftwork/machines/guarantee.hpp"
 #include "shaftwork/machines/rating.hpp"
 
@@ -25,9 +27,11 @@ struct CaseOutcome {
   std::optional<machines::Rating> rating;
   std::string error;  // set when !rating
   std::vector<std::string> warnings;
+  // Present when the case's given values carry uncertainties (the rating's, propagated).
+  std::optional<UncertaintyResult> uncertainty = {};
   // The case's own guarantee (io/guarantee_reader.hpp), judged; or why it could not be.
-  std::optional<machines::GuaranteeResult> guarantee;
-  std::string guarantee_error;
+  std::optional<machines::GuaranteeResult> guarantee = {};
+  std::string guarantee_error = {};
 
   bool ok() const { return rating.has_value(); }
   // A guarantee was judged and not met (exit status 3).
@@ -56,40 +60,70 @@ nlohmann::ordered_json test_json(const TestOutcome& t);
 // a non-finite value turns the case into an error naming the key).
 nlohmann::ordered_json result_json(const CaseOutcome& outcome);
 
-// {"results": [...]} with two-space indentation; with file-level guarantees, "test" beside
-// it: the one test's object, or an array of them when several files hold one.
-void write_json(std::ostream& out, const std::vector<CaseOutcome>& outcomes, const std::vector<TestOutcome>& tests = {});
-
-struct TableOptions {
-  UnitSystem system = UnitSystem::si;
-  bool system_forced = false;  // --units was given: it wins over the units of each case
-  bool show_origin = false;    // several files: name each case's file
-};
-// One block per case: the given values as written, solved ones marked, then the results
-// in the units of the case; redundant values beside their computed twins; warnings.
-// A case's guarantee follows its block; each file's test follows all the cases.
-void write_table(std::ostream& out, const std::vector<CaseOutcome>& outcomes, const TableOptions& options,
-                 const std::vector<TestOutcome>& tests = {});
-// The guarantee block of a table: one line per check (measured, converted, guaranteed,
-// tolerance, deviation, verdict), then the similarity lines; in the units of `units`.
-void write_guarantee_table(std::ostream& out, const machines::GuaranteeResult& g, const DisplayUnits& units);
-
-// A header row of dotted keys with units in brackets, then one row per case; with
-// case-level guarantees, the guarantee columns (guarantee_columns()) after the results.
-void write_csv(std::ostream& out, const std::vector<CaseOutcome>& outcomes, UnitSystem system);
-
 // The CSV columns of a guarantee's verdicts: guarantee.verdict, then for each check
-// guarantee.<key>.converted [unit], .deviation_percent and .verdict, in that order.
+// guarantee.<key>.converted [unit], .deviation_percent and .verdict, in that order, then
+// guarantee.error.
 struct GuaranteeColumns {
   std::vector<machines::Checked> checks;
   std::string header(UnitSystem system) const;  // ",guarantee.verdict,..." (a leading comma)
   // The cells (each with a leading comma) of one row: empty when `g` is empty.
   std::string cells(const machines::GuaranteeResult* g, UnitSystem system, const std::string& error) const;
+  // Adds the checks of `other` (the order stays kAllChecked's).
+  void add(const GuaranteeColumns& other);
 };
 // The columns for these guarantees (the checks any of them makes, in kAllChecked order).
 GuaranteeColumns guarantee_columns(const std::vector<const machines::GuaranteeResult*>& guarantees);
-// The columns a guarantee of `machine` will fill, before any row is judged (batches).
+// The columns a guarantee of `machine` will fill, before any row is judged (batches, and
+// the cases' own guarantees before rate writes its header).
 GuaranteeColumns guarantee_columns(const machines::Guarantee& g, machines::MachineKind machine);
+
+struct TableOptions {
+  UnitSystem system = UnitSystem::si;
+  bool system_forced = false;  // --units was given: it wins over the units of each case
+  bool show_origin = false;    // several files: name each case's file
+  bool uncertainty_columns = false;  // csv: the "uncertainty.<key>" columns (some case states an uncertainty)
+  // csv: the guarantee columns (some case has a guarantee of its own), decided before the
+  // header as the uncertainty columns are.
+  std::optional<GuaranteeColumns> guarantee_columns = {};
+};
+// One case's block of the table: the given values as written, solved ones marked, then
+// the results in the units of the case; redundant values beside their computed twins;
+// warnings; then the case's own guarantee.
+void write_case_table(std::ostream& out, const CaseOutcome& outcome, const TableOptions& options);
+// A file's test (its guarantee judged on all its cases), written after the file's cases.
+void write_test_table(std::ostream& out, const TestOutcome& test, const TableOptions& options);
+// The guarantee block of a table: one line per check (measured, converted, guaranteed,
+// tolerance, deviation, verdict), then the similarity lines; in the units of `units`.
+void write_guarantee_table(std::ostream& out, const machines::GuaranteeResult& g, const DisplayUnits& units);
+
+// The CSV of cases: a header row of dotted keys with units in brackets, and one row per
+// case (each with its CRLF line end); with options.uncertainty_columns, a column
+// "uncertainty.<key> [unit]" for every result key follows the result columns (the results
+// keep their places); with options.guarantee_columns, the guarantee columns follow those.
+std::string csv_header(const TableOptions& options);
+std::string csv_row(const CaseOutcome& outcome, const TableOptions& options);
+
+// Results written one case at a time, so that a file of many cases needs memory for one
+// of them: the table, JSON ({"results": [...]} with two-space indentation), JSON lines
+// or CSV.
+class ResultStream {
+ public:
+  virtual ~ResultStream() = default;
+  virtual void add(const CaseOutcome& outcome) = 0;
+  // A file's test, after the file's cases: the table writes its block at once; JSON writes
+  // "test" beside "results" when it finishes (the one test's object, or an array of them
+  // when several files hold one); JSON lines and CSV carry the cases' own guarantees only.
+  virtual void add_test(const TestOutcome& /*test*/) {}
+  // Closes the document (JSON's brackets); nothing may be added after.
+  virtual void finish() {}
+};
+enum class ResultFormat { table, json, jsonl, csv };
+std::unique_ptr<ResultStream> make_result_stream(ResultFormat format, std::ostream& out, const TableOptions& options);
+
+// The whole document of `outcomes` (and the files' `tests`) in one format (tests, small
+// outputs); the CSV's optional columns follow what the outcomes hold.
+void write_results(std::ostream& out, ResultFormat format, const std::vector<CaseOutcome>& outcomes,
+                   const TableOptions& options = {}, const std::vector<TestOutcome>& tests = {});
 
 // Quotes a CSV field when it holds a comma, quote or line break (RFC 4180).
 std::string csv_field(std::string_view text);

@@ -73,8 +73,10 @@ enum class Input : std::uint8_t {
   impeller_tip_diameter,
   impeller_exit_width,
   barometric_pressure,
+  standard_pressure,
+  standard_temperature,
 };
-inline constexpr std::size_t kInputCount = 20;
+inline constexpr std::size_t kInputCount = 22;
 
 // What one rating is given. Each case value is an optional field; kInputs maps the
 // dotted keys onto them, so code that handles every input (reading, echoing, perturbing)
@@ -184,8 +186,14 @@ inline constexpr std::array<InputSpec, kInputCount> kInputs = {{
      &detail::R::impeller_tip_diameter, detail::A::positive, "impeller tip diameter"},
     {Input::impeller_exit_width, "impeller.exit_width", detail::D::length, std::nullopt,
      &detail::R::impeller_exit_width, detail::A::positive, "impeller exit width"},
+    // Read before the others (no RatingInput field): gauge readings need the barometer,
+    // standard volume flows the site's standard conditions when it gives them.
     {Input::barometric_pressure, "site.barometric_pressure", detail::D::pressure, std::nullopt, nullptr,
      detail::A::positive, "site barometer"},
+    {Input::standard_pressure, "site.standard_conditions.pressure", detail::D::pressure, std::nullopt, nullptr,
+     detail::A::positive, "standard pressure"},
+    {Input::standard_temperature, "site.standard_conditions.temperature", detail::D::temperature, std::nullopt,
+     nullptr, detail::A::positive, "standard temperature"},
 }};
 
 constexpr const InputSpec& spec(Input input) { return kInputs[static_cast<std::size_t>(input)]; }

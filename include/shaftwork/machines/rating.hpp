@@ -25,6 +25,7 @@
 
 #include "shaftwork/fluids/fluid_model.hpp"
 #include "shaftwork/machines/inputs.hpp"
+#include "shaftwork/machines/schultz.hpp"
 
 namespace shaftwork::machines {
 
@@ -78,6 +79,7 @@ inline constexpr double kEfficiencyWarningPoints = 0.01;     // |given - compute
 struct Rating {
   MachineKind machine = MachineKind::compressor;
   std::string model;
+  fluids::FluidKind fluid_kind = fluids::FluidKind::ideal_gas;
   SolvedFor solved_for;
   fluids::State inlet;
   fluids::State outlet;
@@ -104,6 +106,10 @@ struct Rating {
   std::optional<double> tip_speed;            // m/s
   std::optional<double> flow_coefficient;     // -, needs the flow
   std::optional<double> machine_mach_number;  // -, needs a single-phase inlet
+  // Real gases: the Schultz method (ASME PTC 10) beside the path-integral values.
+  std::optional<SchultzResult> schultz;
+  // Moist gases: the humidity ratio the fluid was made with, kg water per kg dry gas.
+  std::optional<double> humidity_ratio;
   std::optional<PowerBalance> power_balance;
   std::optional<EfficiencyCheck> efficiency_check;
   std::vector<std::string> warnings;
