@@ -124,9 +124,10 @@ RunState rate_files(const RateOptions& options, io::FluidFactory& fluids, io::Re
     try {
       const auto document = io::parse_json_strict(texts.text(path), origin);
       const auto cases = io::case_objects(document, origin);
+      const std::vector<io::StatedUncertainty> defaults = io::file_uncertainty(document, origin);
       io::FileTest test(document, origin);
       for (std::size_t i = 0; i < cases.size(); ++i) {
-        io::CaseOutcome o = io::rate_case(*cases[i], i, fluids, origin);
+        io::CaseOutcome o = io::rate_case(*cases[i], i, fluids, origin, defaults);
         ids.check(o, i);
         report_case(o);
         state.add(o);

@@ -165,3 +165,38 @@ TEST_CASE("csv: the guarantee's columns after the results") {
                   "deviation_percent,guarantee.outlet.pressure.verdict,guarantee.error,warnings\r\n") != std::string::npos);
   CHECK(text.find(",fail,250,-3.846153846,fail,,") != std::string::npos);
 }
+
+TEST_CASE("a case's stated uncertainties reach its guarantee's checks: inconclusive within U") {
+  io::FluidFactory fluids;
+  json c = air_case("T1", 2.5, 3.0);
+  c["mass_flow"] = json{{"value", "3 kg/s"}, {"uncertainty", "1 %"}};
+  const io::CaseOutcome plain = io::rate_case(c, 0, fluids);
+  REQUIRE(plain.ok());
+  REQUIRE(plain.uncertainty);
+  // P = m w with w fixed by the pressures and the efficiency: 1 % of the flow is 1 % of the
+  // power (a closed form, not the code's number).
+  const double power = *plain.rating->power;
+  CHECK(*plain.uncertainty->of("power") == Approx(0.01 * power).epsilon(1e-6));
+  const auto judged = [&](double guaranteed_power) {
+    json g = c;
+    g["guarantee"] = json{{"speed", "9000 rpm"},
+                          {"mass_flow", "3 kg/s"},
+                          {"power", std::to_string(guaranteed_power) + " W"},
+                          {"tolerances", {{"power", {{"max", "0 %"}}}}}};
+    return io::rate_case(g, 0, fluids);
+  };
+  // 0.5 % above a zero tolerance, with U = 1 % of the measured power: inconclusive.
+  const io::CaseOutcome near = judged(power / 1.005);
+  REQUIRE(near.guarantee);
+  const machines::Check& check = near.guarantee->checks.at(0);
+  CHECK(check.quantity == machines::Checked::power);
+  CHECK(*check.deviation_percent == Approx(0.5).epsilon(1e-6));
+  CHECK(*check.uncertainty_percent == Approx(1.005).epsilon(1e-6));  // 1 % of the converted, in % of guaranteed
+  CHECK(check.verdict == machines::Verdict::inconclusive);
+  CHECK_FALSE(near.guarantee_failed());
+  // 1.5 % above: beyond the tolerance by more than U, a fail.
+  const io::CaseOutcome far = judged(power / 1.015);
+  REQUIRE(far.guarantee);
+  CHECK(far.guarantee->checks.at(0).verdict == machines::Verdict::fail);
+  CHECK(far.guarantee_failed());
+}
