@@ -50,7 +50,7 @@ for topic in "${topics[@]}"; do
   options=(-max_total_time="$seconds" -timeout=10 -rss_limit_mb=2048 -print_final_stats=1)
   case $topic in
     case_file)
-      seed "$corpus" examples/*.json tests/bad_input/*.json fuzz/seeds/case_file/*
+      seed "$corpus" examples/*.json examples/guarantees/*.json tests/bad_input/*.json fuzz/seeds/case_file/*
       options+=(-dict=fuzz/case_file.dict -max_len=8192)
       ;;
     units)

@@ -89,10 +89,19 @@ int run_batch(const BatchCommandOptions& options) {
       std::cerr << fmt::format("warning: the system started {} of the {} threads asked for; the batch was rated on {}\n",
                                summary.threads, batch.jobs, summary.threads);
     }
+    if (summary.guarantees_not_judged > 0) {
+      std::cerr << fmt::format("error: {} of {} rows were rated but not judged against the guarantee; each one's "
+                               "\"guarantee.error\" says why\n",
+                               summary.guarantees_not_judged, summary.rows);
+    }
     if (summary.failed > 0) {
       std::cerr << fmt::format("error: {} of {} rows could not be rated; each one's \"error\" says why\n",
                                summary.failed, summary.rows);
-      return kExitCaseFailed;
+    }
+    if (summary.failed > 0 || summary.guarantees_not_judged > 0) return kExitCaseFailed;
+    if (summary.guarantees_failed > 0) {
+      std::cerr << fmt::format("{} of {} rows do not meet the guarantee\n", summary.guarantees_failed, summary.rows);
+      return kExitGuaranteeFailed;
     }
     return kExitOk;
   } catch (const Error& e) {

@@ -7,13 +7,14 @@
 namespace shaftwork::cli {
 
 // Exit statuses (the contract): every case rated; some case failed; the command
-// line or a whole file could not be used; every case rated, but a check failed (an
-// expectation or a baseline key of `check`). The highest applicable wins in the order
-// 2, 1, 3, 0.
+// line or a whole file could not be used; every case rated, but a guarantee not met (rate)
+// or a check failed (an expectation or a baseline key of `check`). The highest applicable
+// wins in the order 2, 1, 3, 0.
 inline constexpr int kExitOk = 0;
 inline constexpr int kExitCaseFailed = 1;
 inline constexpr int kExitUnusable = 2;
 inline constexpr int kExitCheckFailed = 3;
+inline constexpr int kExitGuaranteeFailed = kExitCheckFailed;  // the same status: a guarantee not met
 
 struct Subcommand {
   const char* name;

@@ -23,6 +23,7 @@
 #include "shaftwork/io/atomic_file.hpp"
 #include "shaftwork/io/case_reader.hpp"
 #include "shaftwork/io/case_runner.hpp"
+#include "shaftwork/io/guarantee_reader.hpp"
 #include "shaftwork/io/result_writer.hpp"
 #include "shaftwork/io/text_file.hpp"
 
@@ -45,12 +46,37 @@ struct RateOptions {
 };
 
 
-// Each case's warnings and, for a failed case, its error, on standard error (the results
-// keep them too).
+// Each case's warnings and, for a failed case or a guarantee that could not be judged, its
+// error, on standard error (the results keep them too).
 void report_case(const io::CaseOutcome& o) {
   for (const auto& w : o.warnings) std::cerr << fmt::format("warning: case \"{}\": {}\n", o.id, w);
-  if (!o.ok()) std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
+  if (!o.ok()) {
+    std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.error);
+  } else if (!o.guarantee_error.empty()) {
+    std::cerr << fmt::format("error: case \"{}\": {}\n", o.id, o.guarantee_error);
+  }
 }
+
+// A file's test: its warnings and, when it could not be judged, its error, on standard error.
+void report_test(const io::TestOutcome& t) {
+  for (const auto& w : t.warnings) std::cerr << fmt::format("warning: {}: {}\n", t.origin, w);
+  if (!t.result) std::cerr << fmt::format("error: {}: {}\n", t.origin, t.error);
+}
+
+// What the cases and tests of a run came to, for the exit status (the contract: 2, 1, 3, 0).
+struct RunState {
+  bool file_unusable = false;
+  bool case_failed = false;       // a case not rated, or a guarantee not judged
+  bool guarantee_failed = false;  // a guarantee judged and not met
+  void add(const io::CaseOutcome& o) {
+    case_failed = case_failed || !o.ok() || !o.guarantee_error.empty();
+    guarantee_failed = guarantee_failed || o.guarantee_failed();
+  }
+  void add(const io::TestOutcome& t) {
+    case_failed = case_failed || !t.result;
+    guarantee_failed = guarantee_failed || t.failed();
+  }
+};
 
 io::ResultFormat result_format(const std::string& name) {
   if (name == "json") return io::ResultFormat::json;
@@ -74,43 +100,55 @@ class InputTexts {
   std::optional<std::string> stdin_;
 };
 
-// Whether some case of the files states an uncertainty (the CSV's uncertainty columns); a
-// file that cannot be read or parsed is left to rate_files to report.
-bool files_state_uncertainty(const std::vector<std::string>& files, InputTexts& texts) {
+// The CSV's optional columns, decided before its header: the uncertainty columns when some
+// case of the files states an uncertainty, the guarantee columns when some case has a
+// guarantee of its own. A file that cannot be read or parsed is left to rate_files to report.
+void choose_csv_columns(const std::vector<std::string>& files, InputTexts& texts, io::FluidFactory& fluids,
+                        io::TableOptions& table) {
   for (const auto& path : files) {
     try {
-      if (io::states_uncertainty(io::parse_json_strict(texts.text(path), path))) return true;
+      const auto document = io::parse_json_strict(texts.text(path), path);
+      table.uncertainty_columns = table.uncertainty_columns || io::states_uncertainty(document);
+      io::add_case_guarantee_columns(document, path, fluids, table.guarantee_columns);
     } catch (const Error&) {
     }
   }
-  return false;
 }
 
 // Rates the cases of each file as they come and writes each result at once: memory holds
-// one file's document and one result. Returns whether a case failed; sets file_unusable.
-bool rate_files(const RateOptions& options, io::FluidFactory& fluids, io::ResultStream& results, InputTexts& texts,
-                bool& file_unusable) {
-  bool case_failed = false;
+// one file's document, one result and, for a file's guarantee, its test points; the file's
+// test is judged and written after its cases.
+RunState rate_files(const RateOptions& options, io::FluidFactory& fluids, io::ResultStream& results,
+                    InputTexts& texts) {
+  RunState state;
   io::CaseIdRegister ids;
   for (const auto& path : options.files) {
     const std::string origin = path == "-" ? "standard input" : path;
     try {
       const auto document = io::parse_json_strict(texts.text(path), origin);
       const auto cases = io::case_objects(document, origin);
+      const std::vector<io::StatedUncertainty> defaults = io::file_uncertainty(document, origin);
+      io::FileTest test(document, origin);
       for (std::size_t i = 0; i < cases.size(); ++i) {
-        io::CaseOutcome o = io::rate_case(*cases[i], i, fluids, origin);
+        io::CaseOutcome o = io::rate_case(*cases[i], i, fluids, origin, defaults);
         ids.check(o, i);
         report_case(o);
-        case_failed = case_failed || !o.ok();
+        state.add(o);
+        test.add(o);
         results.add(o);
       }
+      if (!test.active()) continue;
+      const io::TestOutcome t = test.finish(fluids);
+      report_test(t);
+      state.add(t);
+      results.add_test(t);
     } catch (const Error& e) {
       std::cerr << "error: " << e.what() << '\n';
-      file_unusable = true;
+      state.file_unusable = true;
     }
   }
   results.finish();
-  return case_failed;
+  return state;
 }
 
 int run_rate(const RateOptions& options) {
@@ -134,16 +172,15 @@ int run_rate(const RateOptions& options) {
     return kExitUnusable;
   }
   InputTexts texts;
-  if (options.format == "csv") table.uncertainty_columns = files_state_uncertainty(options.files, texts);
-  bool file_unusable = false;
+  if (options.format == "csv") choose_csv_columns(options.files, texts, fluids, table);
   io::SinkStream out(file ? static_cast<io::ByteSink&>(*file) : io::standard_output());
   const auto results = io::make_result_stream(result_format(options.format), out, table);
   ResultTee tee(*results, std::move(pictures));
-  bool case_failed = false;
+  RunState state;
   try {
-    case_failed = rate_files(options, fluids, tee, texts, file_unusable);
+    state = rate_files(options, fluids, tee, texts);
     out.flush();
-    if (file && file_unusable) {
+    if (file && state.file_unusable) {
       // Exit 2 leaves an existing output file as it was (the temporary file goes with `file`):
       // the results of some inputs must not pass for the run's.
       std::cerr << fmt::format("error: {}: not written, since an input could not be used\n", options.output);
@@ -154,8 +191,9 @@ int run_rate(const RateOptions& options) {
     std::cerr << "error: " << e.what() << '\n';
     return kExitUnusable;
   }
-  if (file_unusable || tee.failed()) return kExitUnusable;
-  return case_failed ? kExitCaseFailed : kExitOk;
+  if (state.file_unusable || tee.failed()) return kExitUnusable;
+  if (state.case_failed) return kExitCaseFailed;
+  return state.guarantee_failed ? kExitGuaranteeFailed : kExitOk;
 }
 
 // --jobs: a whole number of threads, at least 1. (CLI11's PositiveNumber answered 0 with the

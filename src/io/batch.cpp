@@ -2,6 +2,7 @@
 // rows are rated by workers (batch_rows.cpp, worker_pool.cpp) and written in input order.
 // Nothing per row goes through JSON (except the jsonl output itself).
 #include "shaftwork/io/batch.hpp"
+#include "shaftwork/io/guarantee_reader.hpp"
 
 #include <algorithm>
 #include <chrono>
@@ -85,6 +86,14 @@ BatchTemplate read_batch_template(const nlohmann::json& document, const std::str
       if (std::none_of(statements.begin(), statements.end(), stated)) statements.push_back(s);
     }
     apply_uncertainty_by_key(templ.input, statements);
+    // The template's guarantee, in its case or beside "cases": every row is judged against it.
+    const std::string key(kGuaranteeKey);
+    const nlohmann::json* g = cases.front()->contains(key) ? &(*cases.front())[key]
+                              : document.contains(key)      ? &document[key]
+                                                            : nullptr;
+    if (g) {
+      templ.guarantee = read_guarantee(*g, templ.input.machine, fluids, templ.input.barometer(), templ.input.warnings);
+    }
   } catch (const Error& e) {
     refuse(fmt::format("{}: {}", origin, e.what()));
   } catch (const nlohmann::json::exception& e) {
@@ -118,7 +127,7 @@ class Pipeline {
     RowRater rater(shared_);
     for (bool more = true; more; more = next(job)) {
       const auto chunk_start = std::chrono::steady_clock::now();
-      rater.rate_chunk(job.chunk, job.out, job.rows, job.failed);
+      rater.rate_chunk(job.chunk, job.out, job.counts);
       sizer_.observe(job.chunk.text.size(), seconds_since(chunk_start));
       finish(job);
     }
@@ -162,7 +171,7 @@ class Pipeline {
     chunker_.set_target_size(sizer_.next());
     if (!chunker_.next(job.chunk)) return false;
     job.out.clear();
-    job.rows = job.failed = 0;
+    job.counts = RowCounts{};
     job.done = false;
     return true;
   }
@@ -170,8 +179,10 @@ class Pipeline {
   void finish(Job& job) {
     if (job.error) std::rethrow_exception(job.error);
     out_.write(job.out.view());
-    summary_.rows += job.rows;
-    summary_.failed += job.failed;
+    summary_.rows += job.counts.rows;
+    summary_.failed += job.counts.failed;
+    summary_.guarantees_failed += job.counts.guarantees_failed;
+    summary_.guarantees_not_judged += job.counts.guarantees_not_judged;
     if (progress_) progress_->update(summary_.rows, chunker_.bytes_read(), size_hint_);
   }
 

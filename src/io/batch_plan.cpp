@@ -100,7 +100,8 @@ InputColumn input_column(std::size_t i, const std::string& header, const InputSp
   c.offset = u.offset;
   c.gauge = u.gauge;
   c.vacuum = u.vacuum();
-  c.factor = c.dimension == Dimension::length ? units::kStandardGravity : 1.0;
+  // A pump head as a height is held as energy per mass; an impeller's length is a length.
+  c.factor = spec.input == Input::head && c.dimension == Dimension::length ? units::kStandardGravity : 1.0;
   if (spec.input == Input::barometric_pressure) {  // a gauge barometer is refused
     const std::string gauge = given_value_problem(spec.input, units::kStandardAtmosphere, unit);
     if (!gauge.empty()) fail(gauge);
@@ -248,6 +249,8 @@ std::vector<const ResultKey*> default_outputs(const Plan& plan, const BatchTempl
   for (const ResultKey& k : result_keys()) {
     if (!k.in_batch || column_gives(plan, k.key)) continue;
     if ((k.applies == Applies::two_phase && !two_phase) || (k.applies == Applies::pump && !pump)) continue;
+    if (k.applies == Applies::speed && !given(Input::speed)) continue;
+    if (k.applies == Applies::impeller && !(given(Input::speed) && given(Input::impeller_tip_diameter))) continue;
     if (k.applies == Applies::real_gas && templ.input.fluid->fluid_kind() != fluids::FluidKind::real_gas) continue;
     if (k.key.rfind("power_balance.", 0) == 0 && !(flow && power)) continue;
     if (k.key.rfind("efficiency_check.", 0) == 0 && !efficiency) continue;
@@ -316,6 +319,10 @@ void plan_outputs(Plan& plan, const BatchTemplate& templ, const BatchOptions& op
   }
   if (plan.uncertainty) {
     for (const ResultKey* k : keys) header_of(kUncertaintyPrefix, k);
+  }
+  if (templ.guarantee) {
+    plan.guarantee = guarantee_columns(*templ.guarantee, templ.input.machine);
+    line += plan.guarantee->header(options.units);
   }
   line += ",warnings\r\n";
 }

@@ -54,6 +54,7 @@ struct Plan {
   // columns follow the result columns.
   bool uncertainty = false;
   bool solved_for_column = true;     // the default columns only
+  std::optional<GuaranteeColumns> guarantee;  // the verdict columns, when the template has a guarantee
   std::string output_header;         // the whole csv header line, with its line end
   std::vector<std::string> notices;  // one per carried column
 };

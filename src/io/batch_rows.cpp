@@ -2,12 +2,14 @@
 
 #include <algorithm>
 #include <cmath>
+#include <span>
 
 #include <fmt/format.h>
 
 #include "cell_number.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/case_reader.hpp"
+#include "shaftwork/io/guarantee_reader.hpp"
 #include "shaftwork/io/number_format.hpp"
 #include "shaftwork/io/result_writer.hpp"
 #include "shaftwork/io/uncertainty_input.hpp"
@@ -138,15 +140,33 @@ UncertaintyPropagator propagator_for(const BatchShared& shared) {
 RowRater::RowRater(const BatchShared& shared)
     : shared_(shared), plan_(shared.plan), input_(shared.base), propagator_(propagator_for(shared)) {}
 
-void RowRater::rate_chunk(CsvChunk& chunk, OutputBuffer& out, std::size_t& rows, std::size_t& failed) {
+void RowRater::rate_chunk(CsvChunk& chunk, OutputBuffer& out, RowCounts& counts) {
   CsvRecordParser parser(chunk.text, chunk.first_line);
   while (parser.next(record_)) {
-    ++rows;
-    if (!rate_record(out)) ++failed;
+    ++counts.rows;
+    if (!rate_record(out, counts)) ++counts.failed;
   }
 }
 
-bool RowRater::rate_record(OutputBuffer& out) {
+// The row's verdict on the template's guarantee, as a single test point.
+void RowRater::judge_guarantee(std::size_t line, RowCounts& counts) {
+  guarantee_.reset();
+  guarantee_error_.clear();
+  machines::TestPoint point;
+  point.id = id_.empty() ? fmt::format("line {}", line) : std::string(id_);
+  point.input = input_;
+  point.rating = rating_;
+  if (rated_uncertainty_) point.uncertainty = uncertainty_by_result_key(uncertainty_);
+  try {
+    guarantee_ = machines::judge(*shared_.templ.guarantee, std::span(&point, 1));
+    if (guarantee_->verdict == machines::Verdict::fail) ++counts.guarantees_failed;
+  } catch (const Error& e) {
+    guarantee_error_ = fmt::format("guarantee: {}", e.what());
+    ++counts.guarantees_not_judged;
+  }
+}
+
+bool RowRater::rate_record(OutputBuffer& out, RowCounts& counts) {
   const std::size_t line = record_.line;
   error_.clear();
   id_ = {};
@@ -175,6 +195,7 @@ bool RowRater::rate_record(OutputBuffer& out) {
     propagator_.propagate(input_, sources_, rating_, uncertainty_);
     rated_uncertainty_ = true;
   }
+  if (rated && shared_.templ.guarantee) judge_guarantee(line, counts);
   if (shared_.options.format == BatchFormat::jsonl) {
     write_jsonl(out, rated, line);
   } else {
@@ -299,6 +320,10 @@ void RowRater::write_csv_row(OutputBuffer& out, bool rated) {
   }
   out.commit(p);
   if (plan_.uncertainty) write_uncertainty_cells(out);
+  if (plan_.guarantee) {
+    out.append(plan_.guarantee->cells(rated && guarantee_ ? &*guarantee_ : nullptr, shared_.options.units,
+                                      rated ? guarantee_error_ : std::string()));
+  }
   out.push_back(',');
   append_warnings(out, rated);
   out.append("\r\n");
@@ -353,6 +378,10 @@ void RowRater::write_jsonl(OutputBuffer& out, bool rated, std::size_t line) {
     if (rated_uncertainty_) {
       o.uncertainty = uncertainty_;
       o.warnings.insert(o.warnings.end(), uncertainty_.warnings.begin(), uncertainty_.warnings.end());
+    }
+    if (shared_.templ.guarantee) {
+      o.guarantee = guarantee_;
+      o.guarantee_error = guarantee_error_;
     }
   }
   // A CSV cell may hold bytes that are not UTF-8 (an id from a logger): written as U+FFFD,

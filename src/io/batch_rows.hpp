@@ -17,6 +17,14 @@
 
 namespace shaftwork::io {
 
+// What a chunk's rows came to.
+struct RowCounts {
+  std::size_t rows = 0;
+  std::size_t failed = 0;                 // written as errors
+  std::size_t guarantees_failed = 0;      // rated, and the template's guarantee not met
+  std::size_t guarantees_not_judged = 0;  // rated, and the guarantee could not be judged
+};
+
 // A value of the rows that may carry an uncertainty: from its uncertainty column, or where
 // that is absent or its cell empty, from the template's statement for its key.
 struct UncertainValue {
@@ -53,10 +61,11 @@ class RowRater {
   explicit RowRater(const BatchShared& shared);
 
   // Rates every record of `chunk`, appending the output to `out`.
-  void rate_chunk(CsvChunk& chunk, OutputBuffer& out, std::size_t& rows, std::size_t& failed);
+  void rate_chunk(CsvChunk& chunk, OutputBuffer& out, RowCounts& counts);
 
  private:
-  bool rate_record(OutputBuffer& out);
+  bool rate_record(OutputBuffer& out, RowCounts& counts);
+  void judge_guarantee(std::size_t line, RowCounts& counts);
   bool apply_cells(std::size_t line);
   bool apply(const InputColumn& c, std::string_view raw, std::size_t line);
   bool apply_uncertainties(std::size_t line);
@@ -75,6 +84,8 @@ class RowRater {
   machines::SolvedFor solved_for_;  // of the previous rated row, and as text
   std::string solved_for_text_;
   std::string error_;
+  std::optional<machines::GuaranteeResult> guarantee_;  // the row's verdict on the template's guarantee
+  std::string guarantee_error_;
   bool cell_error_ = false;  // the row failed before rating: no warnings, as for a case that cannot be read
   double barometer_ = units::kStandardAtmosphere;
   // The row's readings as SI differences (|cell| x scale), by machines::Input: what a

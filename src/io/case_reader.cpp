@@ -20,7 +20,8 @@ using units::Dimension;
 [[noreturn]] void refuse(const std::string& message) { throw Error(ErrorKind::bad_input, message); }
 
 // Keys of a case that are not values of kInputs.
-constexpr std::string_view kOtherKeys[] = {kIdKey, kMachineKey, kFluidKey, kNoteKey, kUncertaintyKey, kExpectKey};
+constexpr std::string_view kOtherKeys[] = {kIdKey,          kMachineKey, kFluidKey, kNoteKey, kUncertaintyKey,
+                                           kExpectKey,      kGuaranteeKey};
 
 // The first segment of a dotted key ("inlet" of "inlet.pressure").
 std::string_view head_of(std::string_view key) { return key.substr(0, key.find('.')); }
@@ -111,7 +112,8 @@ GivenValue read_given(const InputSpec& s, const json& measured, const std::strin
   const ReadQuantity q = read_quantity(value, d, path, context, notes);
   GivenValue g;
   g.input = s.input;
-  g.si = d == Dimension::length ? q.si * units::kStandardGravity : q.si;
+  // A pump head as a height ("85 m") is held as energy per mass; an impeller's length is a length.
+  g.si = s.input == Input::head && d == Dimension::length ? q.si * units::kStandardGravity : q.si;
   g.unit = q.unit;
   const units::UnitInfo* unit = q.unit.empty() ? nullptr : units::find_unit(q.unit);
   g.on_barometer = unit && unit->gauge;

@@ -4,6 +4,7 @@
 
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/case_reader.hpp"
+#include "shaftwork/io/guarantee_reader.hpp"
 #include "shaftwork/io/uncertainty_input.hpp"
 
 namespace shaftwork::io {
@@ -31,6 +32,8 @@ CaseOutcome rate_case(const json& case_object, size_t index, FluidFactory& fluid
     }
     outcome.input = std::move(input);
     outcome.rating = std::move(rating);
+    const std::string guarantee(kGuaranteeKey);
+    if (case_object.contains(guarantee)) judge_case_guarantee(case_object[guarantee], fluids, outcome);
   } catch (const Error& e) {
     outcome.error = e.what();
   } catch (const json::exception& e) {
@@ -61,9 +64,15 @@ std::vector<CaseOutcome> rate_document(const json& document, const std::string& 
   return outcomes;
 }
 
-}  // namespace shaftwork::io
-
-namespace shaftwork::io {
+RatedFile rate_file(const json& document, const std::string& origin, FluidFactory& fluids) {
+  RatedFile out;
+  out.cases = rate_document(document, origin, fluids);
+  FileTest test(document, origin);
+  if (!test.active()) return out;
+  for (const CaseOutcome& o : out.cases) test.add(o);
+  out.test = test.finish(fluids);
+  return out;
+}
 
 void CaseIdRegister::check(CaseOutcome& outcome, size_t index) {
   const auto [at, added] = seen_.try_emplace(outcome.id, fmt::format("{}, case {}", outcome.origin, index + 1));

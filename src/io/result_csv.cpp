@@ -45,16 +45,19 @@ void append_uncertainty_cells(std::string& out, const CaseOutcome& o, UnitSystem
 
 }  // namespace
 
-std::string csv_header(UnitSystem system, bool uncertainty) {
+std::string csv_header(const TableOptions& options) {
+  const UnitSystem system = options.system;
   std::string out = "id,file,status,error,machine,fluid,model,solved_for";
   for (const ResultKey& k : result_keys()) out += ',' + column_header("", k, system);
-  if (uncertainty) {
+  if (options.uncertainty_columns) {
     for (const ResultKey& k : result_keys()) out += ',' + column_header("uncertainty.", k, system);
   }
+  if (options.guarantee_columns) out += options.guarantee_columns->header(system);
   return out + ",warnings\r\n";
 }
 
-std::string csv_row(const CaseOutcome& o, UnitSystem system, bool uncertainty) {
+std::string csv_row(const CaseOutcome& o, const TableOptions& options) {
+  const UnitSystem system = options.system;
   std::string out = fmt::format("{},{},{},{},", csv_field(o.id), csv_field(o.origin), o.ok() ? "ok" : "error",
                                 csv_field(o.error));
   if (o.ok()) {
@@ -72,7 +75,10 @@ std::string csv_row(const CaseOutcome& o, UnitSystem system, bool uncertainty) {
     out += ",,,";
     out.append(result_keys().size(), ',');
   }
-  if (uncertainty) append_uncertainty_cells(out, o, system);
+  if (options.uncertainty_columns) append_uncertainty_cells(out, o, system);
+  if (options.guarantee_columns) {
+    out += options.guarantee_columns->cells(o.guarantee ? &*o.guarantee : nullptr, system, o.guarantee_error);
+  }
   return out + ',' + csv_field(fmt::format("{}", fmt::join(o.warnings, "; "))) + "\r\n";
 }
 

@@ -7,14 +7,13 @@
 #include "shaftwork/io/number_format.hpp"
 #include "shaftwork/io/result_keys.hpp"
 #include "shaftwork/io/result_writer.hpp"
+#include "json_numbers.hpp"
 
 namespace shaftwork::io {
-namespace {
 
 using nlohmann::ordered_json;
 
-// Sets j[a][b]... along the dotted key.
-void place(ordered_json& j, std::string_view key, double value) {
+void json_place(ordered_json& j, std::string_view key, double value) {
   ordered_json* at = &j;
   for (auto dot = key.find('.'); dot != std::string_view::npos; dot = key.find('.')) {
     at = &(*at)[std::string(key.substr(0, dot))];
@@ -22,6 +21,8 @@ void place(ordered_json& j, std::string_view key, double value) {
   }
   (*at)[std::string(key)] = rounded_for_output(value);
 }
+
+namespace {
 
 ordered_json error_json(const CaseOutcome& o) {
   ordered_json j;
@@ -89,17 +90,24 @@ ordered_json result_json(const CaseOutcome& o) {
     const std::optional<double> v = k.value(r);
     if (!v) continue;
     if (!std::isfinite(*v)) {
-      CaseOutcome failed{o.id, o.origin, std::nullopt, std::nullopt,
-                         fmt::format("the result {} is not a finite number; the case cannot be rated", k.key),
-                         o.warnings};
+      CaseOutcome failed;
+      failed.id = o.id;
+      failed.origin = o.origin;
+      failed.error = fmt::format("the result {} is not a finite number; the case cannot be rated", k.key);
+      failed.warnings = o.warnings;
       return error_json(failed);
     }
-    place(j, k.key, *v);
+    json_place(j, k.key, *v);
   }
   if (r.efficiency_check) j["efficiency_check"]["key"] = machines::key_of(r.efficiency_check->input);
   if (o.uncertainty) {
     j["uncertainty"] = uncertainty_json(*o.uncertainty, r);
     j["uncertainty_contributions"] = contributions_json(*o.uncertainty);
+  }
+  if (o.guarantee) {
+    j["guarantee"] = guarantee_json(*o.guarantee);
+  } else if (!o.guarantee_error.empty()) {
+    j["guarantee"] = ordered_json{{"status", "error"}, {"error", o.guarantee_error}};
   }
   j["warnings"] = o.warnings;
   return j;

@@ -2,6 +2,7 @@
 #include <algorithm>
 #include <sstream>
 #include <string>
+#include <vector>
 
 #include "shaftwork/io/result_writer.hpp"
 
@@ -15,6 +16,10 @@ class TableStream final : public ResultStream {
     if (!first_) out_ << '\n';
     first_ = false;
     write_case_table(out_, o, options_);
+  }
+  void add_test(const TestOutcome& t) override {
+    out_ << '\n';
+    write_test_table(out_, t, options_);
   }
 
  private:
@@ -38,11 +43,26 @@ class JsonStream final : public ResultStream {
       if (c == '\n') out_ << "    ";
     }
   }
-  void finish() override { out_ << (first_ ? "]\n}\n" : "\n  ]\n}\n"); }
+  // Kept until the end: "test" follows "results" (a test object is small).
+  void add_test(const TestOutcome& t) override { tests_.push_back(test_json(t)); }
+  void finish() override {
+    out_ << (first_ ? "]" : "\n  ]");
+    if (!tests_.empty()) {
+      const nlohmann::ordered_json test = tests_.size() == 1 ? tests_.front() : nlohmann::ordered_json(tests_);
+      out_ << ",\n  \"test\": ";
+      const std::string text = test.dump(2, ' ', false, nlohmann::ordered_json::error_handler_t::replace);
+      for (const char c : text) {
+        out_ << c;
+        if (c == '\n') out_ << "  ";
+      }
+    }
+    out_ << "\n}\n";
+  }
 
  private:
   std::ostream& out_;
   bool first_ = true;
+  std::vector<nlohmann::ordered_json> tests_;
 };
 
 class JsonLinesStream final : public ResultStream {
@@ -58,16 +78,14 @@ class JsonLinesStream final : public ResultStream {
 
 class CsvStream final : public ResultStream {
  public:
-  CsvStream(std::ostream& out, UnitSystem system, bool uncertainty)
-      : out_(out), system_(system), uncertainty_(uncertainty) {
-    out_ << csv_header(system_, uncertainty_);
+  CsvStream(std::ostream& out, const TableOptions& options) : out_(out), options_(options) {
+    out_ << csv_header(options_);
   }
-  void add(const CaseOutcome& o) override { out_ << csv_row(o, system_, uncertainty_); }
+  void add(const CaseOutcome& o) override { out_ << csv_row(o, options_); }
 
  private:
   std::ostream& out_;
-  UnitSystem system_;
-  bool uncertainty_;
+  TableOptions options_;
 };
 
 }  // namespace
@@ -76,7 +94,7 @@ std::unique_ptr<ResultStream> make_result_stream(ResultFormat format, std::ostre
   switch (format) {
     case ResultFormat::json: return std::make_unique<JsonStream>(out);
     case ResultFormat::jsonl: return std::make_unique<JsonLinesStream>(out);
-    case ResultFormat::csv: return std::make_unique<CsvStream>(out, options.system, options.uncertainty_columns);
+    case ResultFormat::csv: return std::make_unique<CsvStream>(out, options);
     case ResultFormat::xlsx: return make_workbook_stream(out, options.system);
     case ResultFormat::table: break;
   }
@@ -84,13 +102,21 @@ std::unique_ptr<ResultStream> make_result_stream(ResultFormat format, std::ostre
 }
 
 void write_results(std::ostream& out, ResultFormat format, const std::vector<CaseOutcome>& outcomes,
-                   const TableOptions& options) {
+                   const TableOptions& options, const std::vector<TestOutcome>& tests) {
   TableOptions whole = options;
   whole.uncertainty_columns = options.uncertainty_columns ||
                               std::any_of(outcomes.begin(), outcomes.end(),
                                           [](const CaseOutcome& o) { return o.uncertainty.has_value(); });
+  // Guarantee columns when some case has a guarantee of its own: the checks any of them made.
+  std::vector<const machines::GuaranteeResult*> judged;
+  for (const CaseOutcome& o : outcomes) {
+    if (o.guarantee) judged.push_back(&*o.guarantee);
+    if (!whole.guarantee_columns && (o.guarantee || !o.guarantee_error.empty())) whole.guarantee_columns.emplace();
+  }
+  if (whole.guarantee_columns) whole.guarantee_columns->add(guarantee_columns(judged));
   const auto stream = make_result_stream(format, out, whole);
   for (const CaseOutcome& o : outcomes) stream->add(o);
+  for (const TestOutcome& t : tests) stream->add_test(t);
   stream->finish();
 }
 

@@ -206,14 +206,32 @@ class CaseTable {
 }  // namespace
 
 void write_case_table(std::ostream& out, const CaseOutcome& o, const TableOptions& options) {
-  if (o.ok()) {
-    CaseTable(out, o, options).write(options.show_origin);
+  if (!o.ok()) {
+    out << escape_control(o.id) << '\n';
+    if (options.show_origin && !o.origin.empty()) out << escape_control(fmt::format("  from {}", o.origin)) << '\n';
+    out << "  could not be rated: " << escape_control(o.error) << '\n';
+    for (const auto& w : o.warnings) out << "  warning: " << escape_control(w) << '\n';
     return;
   }
-  out << escape_control(o.id) << '\n';
-  if (options.show_origin && !o.origin.empty()) out << escape_control(fmt::format("  from {}", o.origin)) << '\n';
-  out << "  could not be rated: " << escape_control(o.error) << '\n';
-  for (const auto& w : o.warnings) out << "  warning: " << escape_control(w) << '\n';
+  CaseTable(out, o, options).write(options.show_origin);
+  if (o.guarantee) {
+    write_guarantee_table(out, *o.guarantee, DisplayUnits(options.system, options.system_forced, &*o.input, *o.rating));
+  } else if (!o.guarantee_error.empty()) {
+    out << "  guarantee not judged: " << escape_control(o.guarantee_error) << '\n';
+  }
+}
+
+void write_test_table(std::ostream& out, const TestOutcome& t, const TableOptions& options) {
+  out << escape_control(fmt::format("test of {} ({} test points)", t.origin, t.points.size())) << '\n';
+  if (t.result) {
+    machines::Rating shape;  // the machine chooses some units (a pump's flows in m3/h or gpm)
+    shape.machine = t.result->machine;
+    const DisplayUnits units(options.system, options.system_forced, t.units_from ? &*t.units_from : nullptr, shape);
+    write_guarantee_table(out, *t.result, units);
+  } else {
+    out << "  not judged: " << escape_control(t.error) << '\n';
+  }
+  for (const auto& w : t.warnings) out << "  warning: " << escape_control(w) << '\n';
 }
 
 }  // namespace shaftwork::io

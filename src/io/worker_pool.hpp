@@ -18,8 +18,7 @@ namespace shaftwork::io {
 struct Job {
   CsvChunk chunk;
   OutputBuffer out;
-  std::size_t rows = 0;
-  std::size_t failed = 0;
+  RowCounts counts;
   bool done = false;
   std::exception_ptr error;
 };

@@ -75,6 +75,14 @@ std::string input_problem(const RatingInput& in) {
     if (!problem.empty()) return fmt::format("{}: {}", s.key, problem);
   }
   if (in.head && in.machine != MachineKind::pump) return "head stands for the outlet pressure of pumps only";
+  const bool impeller = in.impeller_tip_diameter || in.impeller_exit_width;
+  if (impeller && in.machine != MachineKind::compressor) {
+    return fmt::format("impeller: given for compressors (and fans) only, and this machine is a {}",
+                       machine_name(in.machine));
+  }
+  if (in.impeller_exit_width && !in.impeller_tip_diameter) {
+    return "impeller.exit_width: given without impeller.tip_diameter; the tip diameter sizes the impeller";
+  }
   return {};
 }
 

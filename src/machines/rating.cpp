@@ -13,6 +13,7 @@
 #include "problem.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/fluids/compressibility_estimate.hpp"
+#include "shaftwork/machines/impeller.hpp"
 #include "shaftwork/machines/polytropic.hpp"
 
 namespace shaftwork::machines {
@@ -310,7 +311,9 @@ void refuse_non_finite(const Rating& r) {
       {"polytropic efficiency", r.efficiency_polytropic},
       {"isentropic head", r.head_isentropic},     {"polytropic head", r.head_polytropic},
       {"pressure ratio", r.pressure_ratio},       {"head height", r.head_height.value_or(0)},
-      {"hydraulic power", r.hydraulic_power.value_or(0)},
+      {"hydraulic power", r.hydraulic_power.value_or(0)}, {"tip speed", r.tip_speed.value_or(0)},
+      {"flow coefficient", r.flow_coefficient.value_or(0)},
+      {"machine Mach number", r.machine_mach_number.value_or(0)},
   };
   for (const auto& [name, value] : values) {
     if (!std::isfinite(value)) {
@@ -354,6 +357,7 @@ Rating rate(const RatingInput& input) {
   }
   check_redundant(problem, efficiency_used, r);
   rate_pump(problem, r);
+  rate_impeller(input, problem.fluid, r);
   add_warnings(problem, e, r);
   refuse_non_finite(r);
   return r;

@@ -27,7 +27,7 @@ scan() {
   fi
 }
 
-for example in examples/*.json; do
+for example in examples/*.json examples/guarantees/*.json; do
   case $example in *.template.json) continue ;; esac
   for format in table json csv; do
     for units in si us; do scan "$bin" rate --format "$format" --units "$units" "$example"; done

@@ -347,7 +347,7 @@ TEST_CASE("a logger's other columns are carried through unchanged, each with one
     std::vector<std::string> seen;
   } notices;
   const std::string csv =
-      "timestamp,id,speed [rpm],outlet.temprature [degC],outlet.temperature [degC]\n"
+      "timestamp,id,motor current [A],outlet.temprature [degC],outlet.temperature [degC]\n"
       "2026-11-20 08:00,P-1,2950,171.9,172.5\n";
   io::FluidFactory fluids;
   const io::BatchTemplate templ = io::read_batch_template(kAirTemplate, "template.json", fluids);
@@ -358,13 +358,13 @@ TEST_CASE("a logger's other columns are carried through unchanged, each with one
   CHECK(summary.failed == 0);
   REQUIRE(notices.seen.size() == 3);
   CHECK(notices.seen[0] == "points.csv: column 1 \"timestamp\" names no case key: carried through unchanged");
-  CHECK(notices.seen[1] == "points.csv: column 3 \"speed [rpm]\" names no case key: carried through unchanged");
+  CHECK(notices.seen[1] == "points.csv: column 3 \"motor current [A]\" names no case key: carried through unchanged");
   CHECK(notices.seen[2] ==
         "points.csv: column 4 \"outlet.temprature [degC]\" names no case key: carried through unchanged (did you "
         "mean outlet.temperature?)");
   const auto lines = lines_of(sink.text);
   REQUIRE(lines.size() == 2);
-  CHECK(lines[0].rfind("timestamp,id,speed [rpm],outlet.temprature [degC],outlet.temperature [degC],status,", 0) == 0);
+  CHECK(lines[0].rfind("timestamp,id,motor current [A],outlet.temprature [degC],outlet.temperature [degC],status,", 0) == 0);
   CHECK(lines[1].rfind("2026-11-20 08:00,P-1,2950,171.9,172.5,ok,,", 0) == 0);
 }
 

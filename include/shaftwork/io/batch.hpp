@@ -12,6 +12,7 @@
 #pragma once
 
 #include <cstddef>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -53,11 +54,15 @@ struct BatchSummary {
   std::size_t failed = 0;  // rows written as errors
   unsigned threads = 1;    // threads that rated: fewer than BatchOptions::jobs when the
                            // system would not start more (the batch still completes)
+  std::size_t guarantees_failed = 0;      // rows whose verdict on the template's guarantee is fail
+  std::size_t guarantees_not_judged = 0;  // rated rows the guarantee could not be judged on
 };
 
-// The template of a batch: its one case, read.
+// The template of a batch: its one case, read, and the guarantee every row is judged
+// against (in the case, or beside "cases"), when it gives one.
 struct BatchTemplate {
   CaseInput input;
+  std::optional<machines::Guarantee> guarantee;
 };
 
 // Told once about each column that is carried through unchanged (a logger's timestamp),

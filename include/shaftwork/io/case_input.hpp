@@ -27,6 +27,8 @@ inline constexpr std::string_view kNoteKey = "note";
 inline constexpr std::string_view kUncertaintyKey = "uncertainty";
 // The expected results of `shaftwork check` (io/expectations.hpp reads them; rating ignores them).
 inline constexpr std::string_view kExpectKey = "expect";
+// A case's own guarantee (io/guarantee_reader.hpp); at the top of a file, the file's.
+inline constexpr std::string_view kGuaranteeKey = "guarantee";
 
 // A stated expanded uncertainty (k = 2, about 95 %) of a given value, as on an instrument
 // datasheet: a percent of the reading ("0.25 %") or a difference in the value's own

@@ -40,6 +40,8 @@ enum class Applies {
   always,
   two_phase,  // fluids with a liquid and a vapour phase: qualities
   pump,       // pumps: head as a height, hydraulic power
+  speed,      // cases that give the shaft speed
+  impeller,   // compressors that give the speed and the impeller: tip speed, flow coefficient, Mach number
   real_gas,   // real-gas models: compressibility, the Schultz method
 };
 

@@ -69,11 +69,14 @@ enum class Input : std::uint8_t {
   efficiency_isentropic,
   efficiency_polytropic,
   mechanical_efficiency,
+  speed,
+  impeller_tip_diameter,
+  impeller_exit_width,
   barometric_pressure,
   standard_pressure,
   standard_temperature,
 };
-inline constexpr std::size_t kInputCount = 19;
+inline constexpr std::size_t kInputCount = 22;
 
 // What one rating is given. Each case value is an optional field; kInputs maps the
 // dotted keys onto them, so code that handles every input (reading, echoing, perturbing)
@@ -98,6 +101,11 @@ struct RatingInput {
   std::optional<double> efficiency_isentropic;
   std::optional<double> efficiency_polytropic;
   std::optional<double> mechanical_efficiency;  // in (0, 1]; absent means 1
+  // Qualifiers that the rating does not solve with: they give results of their own
+  // (tip speed, flow coefficient, machine Mach number) and the guarantee's fan laws.
+  std::optional<double> speed;                  // rev/s, the shaft's rotational speed
+  std::optional<double> impeller_tip_diameter;  // m, first impeller (compressors)
+  std::optional<double> impeller_exit_width;    // m, first impeller at its tip (compressors)
 
   // Writes an SI value the way the user wrote that quantity, for messages; SI text
   // when empty.
@@ -172,6 +180,12 @@ inline constexpr std::array<InputSpec, kInputCount> kInputs = {{
      &detail::R::efficiency_polytropic, detail::A::fraction, "polytropic efficiency"},
     {Input::mechanical_efficiency, "mechanical_efficiency", detail::D::fraction, std::nullopt,
      &detail::R::mechanical_efficiency, detail::A::fraction, "mechanical efficiency"},
+    {Input::speed, "speed", detail::D::rotational_speed, std::nullopt, &detail::R::speed, detail::A::positive,
+     "shaft speed"},
+    {Input::impeller_tip_diameter, "impeller.tip_diameter", detail::D::length, std::nullopt,
+     &detail::R::impeller_tip_diameter, detail::A::positive, "impeller tip diameter"},
+    {Input::impeller_exit_width, "impeller.exit_width", detail::D::length, std::nullopt,
+     &detail::R::impeller_exit_width, detail::A::positive, "impeller exit width"},
     // Read before the others (no RatingInput field): gauge readings need the barometer,
     // standard volume flows the site's standard conditions when it gives them.
     {Input::barometric_pressure, "site.barometric_pressure", detail::D::pressure, std::nullopt, nullptr,
@@ -200,7 +214,8 @@ std::string value_problem(Input input, double value);
 
 // The first problem with a rating input, or "": a quantity given in two forms ("mass_flow
 // and volume_flow are both given: ..."), a value out of its range ("efficiency.isentropic:
-// must be ..."), a head on a machine that is not a pump. The solver refuses such an input;
+// must be ..."), a head on a machine that is not a pump, an impeller on a machine that is
+// not a compressor, an exit width without the tip diameter. The solver refuses such an input;
 // readers check with it first, so that a file's problems show before any rating.
 std::string input_problem(const RatingInput& in);
 

@@ -100,6 +100,12 @@ struct Rating {
   std::optional<double> head_height;      // m, (p2 - p1) / (rho1 g)
   std::optional<double> hydraulic_power;  // W, rho g Q H = m (p2 - p1) / rho1
   std::optional<double> pump_efficiency;  // hydraulic over shaft power
+  // Speed and impeller (machines/impeller.hpp): given speed echoed; the rest need the
+  // speed and the impeller's tip diameter.
+  std::optional<double> speed;                // rev/s
+  std::optional<double> tip_speed;            // m/s
+  std::optional<double> flow_coefficient;     // -, needs the flow
+  std::optional<double> machine_mach_number;  // -, needs a single-phase inlet
   // Real gases: the Schultz method (ASME PTC 10) beside the path-integral values.
   std::optional<SchultzResult> schultz;
   // Moist gases: the humidity ratio the fluid was made with, kg water per kg dry gas.
