@@ -265,6 +265,16 @@ bool PathSolver::relocate(std::size_t k) {
     return true;
   }
   a.crossing = c;
+  // A saturation crossing followed by the regions from here on (follow_saturation, or
+  // locate() finding the saturated states out of step) is one like IF97's other boundaries:
+  // with the entropy form on one side, the sides would be told by (p, s) before the boundary
+  // and by (p, h) beyond it, rules that put the boundary a sliver apart, and the crossing
+  // would go to and fro between the two places, never settling.
+  if (!c.saturation && (a.form != Form::enthalpy || b.form != Form::enthalpy)) {
+    take_crossing_form(k);
+    move_boundary(k, *found);
+    return true;
+  }
   if (std::fabs(*found - old) <= 10 * kLocateTolerance * std::fabs(length_)) return false;
   move_boundary(k, *found);
   return true;

@@ -13,16 +13,19 @@
 namespace shaftwork::machines {
 namespace {
 
-// The function a scan samples, and the first failure to converge among its samples.
+// The function a scan samples, the first failure to converge among its samples, and whether
+// the last sample was refused (the state there is not one the knowns allow).
 struct Probe {
   const std::function<double(double)>& f;
   std::optional<Error> failure = std::nullopt;
+  bool refused = false;
 };
 
 // f(x), or nothing where the state cannot be evaluated. A sample whose evaluation does not
 // converge (a polytropic path far from the solution) counts as not evaluable and is kept, so
 // that a scan that finds no root can say why; the root itself is closed on f, which throws.
 std::optional<double> evaluate(Probe& probe, double x) {
+  probe.refused = false;
   try {
     const double v = probe.f(x);
     if (std::isfinite(v)) return v;
@@ -31,6 +34,8 @@ std::optional<double> evaluate(Probe& probe, double x) {
       if (!probe.failure) probe.failure = e;
     } else if (e.kind() != ErrorKind::bad_input && e.kind() != ErrorKind::out_of_range) {
       throw;
+    } else {
+      probe.refused = true;
     }
   }
   return std::nullopt;
@@ -133,6 +138,11 @@ std::optional<ScanRoot> scan(Probe& probe, double low, double high, int points, 
     }
     previous_valid = v.has_value();
     samples.push_back({x, v});
+    // A change of sign across a sample the knowns refuse (an outlet temperature that is wet
+    // at that outlet pressure, say) brackets no root: f is not defined all the way between,
+    // and closing on it would meet the refusal. One across samples that did not converge
+    // still counts.
+    if (!v && probe.refused) previous.reset();
     if (!v) continue;
     const bool crossed = *v == 0 || (previous && *previous != 0 && ((*previous > 0) != (*v > 0)));
     if (crossed && found) {

@@ -50,6 +50,8 @@ std::vector<PathCase> if97_cases() {
        0.85},
       {"turbine 22.0 MPa 373.7 degC to 4.4 MPa (next to the critical point)", w.from_pt(22e6, 646.85), 4.4e6,
        0.85},
+      {"turbine 47.6 MPa 644 K to 14.3 MPa (region 3, 623.15 K, wet; sweep case 1)",
+       w.from_pt(47635001.517137915, 644.46724051677324), 14268506.139843475, 0.62212546767095633},
       {"supercritical turbine, region 3 into region 2 across B23", w.from_pt(30e6, 720), 8e6, 0.88},
       {"turbine 50 bar 1200 K to 10 bar (region 5 into region 2)", w.from_pt(5e6, 1200), 1e6, 0.85},
       {"region 5 compressor at the top of the range", w.from_pt(1e6, 1500), 3e6, 0.9},
