@@ -79,4 +79,15 @@ void draw_vertical_text(cairo_t* cr, Point at, const std::string& text, double s
   cairo_restore(cr);
 }
 
+double legend_row(cairo_t* cr, double x, double y, const std::string& text, Colour c, Dash dash, double width,
+                  const Mark* mark) {
+  if (mark) {
+    draw_mark(cr, {x + 11, y - 3.5}, *mark, c, 9);
+  } else {
+    stroke_line(cr, {{x, y - 3.5}, {x + 22, y - 3.5}}, c, width, dash);
+  }
+  draw_text(cr, {x + 30, y}, text, 8.5);
+  return y + 14;
+}
+
 }  // namespace shaftwork::charts

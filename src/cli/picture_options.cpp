@@ -22,6 +22,8 @@ void add_picture_options(CLI::App& sub, PictureOptions& options) {
   sub.add_option("--plot-diagram", options.diagram, "The process chart's axes: h-s (enthalpy) or T-s (temperature)")
       ->check(CLI::IsMember({"h-s", "T-s"}))
       ->capture_default_str();
+  sub.add_option("--report", options.report,
+                 "Write a test report of the cases into this PDF: one A4 page each (readable on Letter too)");
 }
 
 ResultTee::ResultTee(io::ResultStream& results, std::vector<std::unique_ptr<io::ResultStream>> pictures)

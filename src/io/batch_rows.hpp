@@ -53,10 +53,14 @@ class RowRater {
   explicit RowRater(const BatchShared& shared);
 
   // Rates every record of `chunk`, appending the output to `out`.
-  void rate_chunk(CsvChunk& chunk, OutputBuffer& out, std::size_t& rows, std::size_t& failed);
+  // With BatchOptions::points set, each row's BatchPoint goes to `points` too (its row
+  // counted within the chunk).
+  void rate_chunk(CsvChunk& chunk, OutputBuffer& out, std::size_t& rows, std::size_t& failed,
+                  std::vector<BatchPoint>& points);
 
  private:
   bool rate_record(OutputBuffer& out);
+  BatchPoint point_of(bool rated, std::size_t row) const;
   bool apply_cells(std::size_t line);
   bool apply(const InputColumn& c, std::string_view raw, std::size_t line);
   bool apply_uncertainties(std::size_t line);

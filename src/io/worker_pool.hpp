@@ -20,6 +20,7 @@ struct Job {
   OutputBuffer out;
   std::size_t rows = 0;
   std::size_t failed = 0;
+  std::vector<BatchPoint> points;  // when BatchOptions::points is set
   bool done = false;
   std::exception_ptr error;
 };

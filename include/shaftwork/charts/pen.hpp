@@ -29,4 +29,9 @@ double draw_text(cairo_t* cr, Point at, const std::string& text, double size, Al
 // The same turned a quarter to the left (an axis title), centred on `at`.
 void draw_vertical_text(cairo_t* cr, Point at, const std::string& text, double size);
 
+// One row of a legend at (x, y): a sample of the mark (when `mark` is given) or of the line,
+// then its text. Returns the next row's y.
+double legend_row(cairo_t* cr, double x, double y, const std::string& text, Colour c, Dash dash, double width,
+                  const Mark* mark);
+
 }  // namespace shaftwork::charts
