@@ -3,6 +3,7 @@
 #include <iostream>
 
 #include "shaftwork/charts/plot_stream.hpp"
+#include "shaftwork/charts/report.hpp"
 #include "shaftwork/error.hpp"
 
 namespace shaftwork::cli {
@@ -61,6 +62,13 @@ std::vector<std::unique_ptr<io::ResultStream>> picture_streams(const PictureOpti
   chart.system = system;
   chart.system_forced = system_forced;
   if (!options.plot.empty()) streams.push_back(charts::make_plot_stream(options.plot, chart));
+  if (!options.report.empty()) {
+    charts::ReportOptions report;
+    report.chart = chart;
+    report.table.system = system;
+    report.table.system_forced = system_forced;
+    streams.push_back(charts::make_report_stream(options.report, report));
+  }
   return streams;
 }
 
