@@ -1,8 +1,11 @@
 #include "shaftwork/charts/axes.hpp"
 
 #include <cmath>
+#include <iterator>
 
 #include <fmt/format.h>
+
+#include "shaftwork/io/timestamp.hpp"
 
 namespace shaftwork::charts {
 
@@ -44,7 +47,35 @@ std::string tick_text(double value, const std::vector<double>& ticks) {
   return fmt::format("{:.{}f}", value + 0.0, decimals);
 }
 
+constexpr double kDay = 86400;
+
 }  // namespace
+
+std::vector<Tick> value_ticks(double low, double high, int target) {
+  const std::vector<double> at = nice_ticks(low, high, target);
+  std::vector<Tick> ticks;
+  for (const double v : at) ticks.push_back({v, tick_text(v, at)});
+  return ticks;
+}
+
+std::vector<Tick> time_ticks(double low, double high, int target) {
+  static constexpr double kSteps[] = {60,   300,   600,   900,   1800,    3600,   7200,
+                                      10800, 21600, 43200, kDay, 2 * kDay, 7 * kDay};
+  double step = kSteps[std::size(kSteps) - 1];
+  for (const double s : kSteps) {
+    if ((high - low) / s <= target) {
+      step = s;
+      break;
+    }
+  }
+  std::vector<Tick> ticks;
+  if (!(high > low)) return ticks;
+  for (double t = std::ceil(low / step) * step; t <= high; t += step) {
+    const std::string text = io::timestamp_text(t);  // "2026-03-02 06:00"
+    ticks.push_back({t, step >= kDay ? text.substr(5, 5) : text.substr(5)});
+  }
+  return ticks;
+}
 
 void clip_to(cairo_t* cr, const Rect& area) {
   cairo_save(cr);
@@ -52,17 +83,17 @@ void clip_to(cairo_t* cr, const Rect& area) {
   cairo_clip(cr);
 }
 
-void draw_axes(cairo_t* cr, const Axes& axes, const std::string& x_title, const std::string& y_title) {
+void draw_axes(cairo_t* cr, const Axes& axes, const std::string& x_title, const std::string& y_title,
+               const std::vector<Tick>* x_ticks) {
   const Rect& a = axes.area;
-  const std::vector<double> xs = nice_ticks(axes.x_low, axes.x_high, 6);
-  const std::vector<double> ys = nice_ticks(axes.y_low, axes.y_high, 6);
-  for (const double x : xs) {
-    stroke_line(cr, {{axes.page_x(x), a.y}, {axes.page_x(x), a.y + a.height}}, kGrid, 0.6);
-    draw_text(cr, {axes.page_x(x), a.y + a.height + 13}, tick_text(x, xs), 8.5, Align::centre);
+  const std::vector<Tick> xs = x_ticks ? *x_ticks : value_ticks(axes.x_low, axes.x_high, 6);
+  for (const Tick& x : xs) {
+    stroke_line(cr, {{axes.page_x(x.at), a.y}, {axes.page_x(x.at), a.y + a.height}}, kGrid, 0.6);
+    draw_text(cr, {axes.page_x(x.at), a.y + a.height + 13}, x.text, 8.5, Align::centre);
   }
-  for (const double y : ys) {
-    stroke_line(cr, {{a.x, axes.page_y(y)}, {a.x + a.width, axes.page_y(y)}}, kGrid, 0.6);
-    draw_text(cr, {a.x - 5, axes.page_y(y) + 3}, tick_text(y, ys), 8.5, Align::right);
+  for (const Tick& y : value_ticks(axes.y_low, axes.y_high, 6)) {
+    stroke_line(cr, {{a.x, axes.page_y(y.at)}, {a.x + a.width, axes.page_y(y.at)}}, kGrid, 0.6);
+    draw_text(cr, {a.x - 5, axes.page_y(y.at) + 3}, y.text, 8.5, Align::right);
   }
   stroke_line(cr, {{a.x, a.y}, {a.x + a.width, a.y}, {a.x + a.width, a.y + a.height}, {a.x, a.y + a.height}, {a.x, a.y}},
               kInk, 0.8);

@@ -54,11 +54,59 @@ void draw_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size) {
   cairo_restore(cr);
 }
 
-double draw_text(cairo_t* cr, Point at, const std::string& text, double size, Align align, bool bold, Colour c) {
-  cairo_save(cr);
-  cairo_select_font_face(cr, "DejaVu Sans", CAIRO_FONT_SLANT_NORMAL,
+namespace {
+
+void select_font(cairo_t* cr, double size, bool bold, bool mono) {
+  cairo_select_font_face(cr, mono ? "DejaVu Sans Mono" : "DejaVu Sans", CAIRO_FONT_SLANT_NORMAL,
                          bold ? CAIRO_FONT_WEIGHT_BOLD : CAIRO_FONT_WEIGHT_NORMAL);
   cairo_set_font_size(cr, size);
+}
+
+}  // namespace
+
+double text_width(cairo_t* cr, const std::string& text, double size, bool bold, bool mono) {
+  cairo_save(cr);
+  select_font(cr, size, bold, mono);
+  cairo_text_extents_t extents;
+  cairo_text_extents(cr, text.c_str(), &extents);
+  cairo_restore(cr);
+  return extents.x_advance;
+}
+
+std::vector<std::string> wrap_text(cairo_t* cr, const std::string& text, double size, double width) {
+  std::vector<std::string> lines;
+  std::string line;
+  std::size_t start = 0;
+  while (start < text.size()) {
+    std::size_t end = text.find(' ', start);
+    if (end == std::string::npos) end = text.size();
+    const std::string word = text.substr(start, end - start);
+    start = end + 1;
+    if (word.empty()) continue;
+    const std::string longer = line.empty() ? word : line + ' ' + word;
+    if (!line.empty() && text_width(cr, longer, size) > width) {
+      lines.push_back(line);
+      line = word;
+    } else {
+      line = longer;
+    }
+  }
+  if (!line.empty()) lines.push_back(line);
+  return lines;
+}
+
+void draw_mono_text(cairo_t* cr, Point at, const std::string& text, double size) {
+  cairo_save(cr);
+  select_font(cr, size, false, true);
+  set_colour(cr, kInk);
+  cairo_move_to(cr, at.x, at.y);
+  cairo_show_text(cr, text.c_str());
+  cairo_restore(cr);
+}
+
+double draw_text(cairo_t* cr, Point at, const std::string& text, double size, Align align, bool bold, Colour c) {
+  cairo_save(cr);
+  select_font(cr, size, bold, false);
   cairo_text_extents_t extents;
   cairo_text_extents(cr, text.c_str(), &extents);
   double x = at.x;
@@ -77,6 +125,17 @@ void draw_vertical_text(cairo_t* cr, Point at, const std::string& text, double s
   cairo_rotate(cr, -M_PI / 2);
   draw_text(cr, {0, 0}, text, size, Align::centre);
   cairo_restore(cr);
+}
+
+double legend_row(cairo_t* cr, double x, double y, const std::string& text, Colour c, Dash dash, double width,
+                  const Mark* mark) {
+  if (mark) {
+    draw_mark(cr, {x + 11, y - 3.5}, *mark, c, 9);
+  } else {
+    stroke_line(cr, {{x, y - 3.5}, {x + 22, y - 3.5}}, c, width, dash);
+  }
+  draw_text(cr, {x + 30, y}, text, 8.5);
+  return y + 14;
 }
 
 }  // namespace shaftwork::charts

@@ -56,18 +56,6 @@ void draw_plot(cairo_t* cr, const ProcessChart& chart, const Axes& axes) {
   draw_mark(cr, axes.page(chart.inlet), Mark::circle, kInletColour, 10);
 }
 
-// One legend row: a sample of the line or mark, then its text. Returns the next row's y.
-double legend_row(cairo_t* cr, double x, double y, const std::string& text, Colour c, Dash dash, double width,
-                  const Mark* mark) {
-  if (mark) {
-    draw_mark(cr, {x + 11, y - 3.5}, *mark, c, 9);
-  } else {
-    stroke_line(cr, {{x, y - 3.5}, {x + 22, y - 3.5}}, c, width, dash);
-  }
-  draw_text(cr, {x + 30, y}, text, 8.5);
-  return y + 14;
-}
-
 void draw_legend(cairo_t* cr, const ProcessChart& chart, double x, double y) {
   const Mark circle = Mark::circle, square = Mark::square, diamond = Mark::diamond;
   y = legend_row(cr, x, y, "inlet", kInletColour, Dash::solid, 0, &circle);

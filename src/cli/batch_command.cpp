@@ -12,6 +12,7 @@
 
 #include "commands.hpp"
 #include "progress_line.hpp"
+#include "shaftwork/charts/batch_chart.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/atomic_file.hpp"
 #include "shaftwork/io/batch.hpp"
@@ -42,15 +43,37 @@ unsigned thread_count(unsigned asked) {
   return cap;
 }
 
+// The batch chart into `path`, whole or not at all; false (with the message on standard
+// error) when it cannot be written: the results are written all the same.
+bool write_chart(const std::string& path, const charts::BatchChartData& chart, const io::CaseInput& templ,
+                 const std::string& points_name) {
+  try {
+    io::OutputFile file(path);
+    charts::Document document(charts::image_format_of(path), file, charts::kChartPage.width,
+                              charts::kChartPage.height);
+    const charts::BatchChartText text{
+        templ.id, fmt::format("{}: {} on {}", points_name, templ.machine_written, templ.fluid_label)};
+    charts::draw_batch_chart(document.begin_page(), chart, text, charts::kChartPage);
+    document.end_page();
+    document.finish();
+    file.commit();
+    return true;
+  } catch (const Error& e) {
+    std::cerr << "error: " << e.what() << '\n';
+    return false;
+  }
+}
+
 }  // namespace
 
 int run_batch(const BatchCommandOptions& options) {
   try {
-    if (!options.output.empty()) {
-      std::vector<std::string> inputs = {options.points, options.template_file};
-      inputs.insert(inputs.end(), options.species_files.begin(), options.species_files.end());
-      io::refuse_output_among_inputs(options.output, inputs);
+    std::vector<std::string> inputs = {options.points, options.template_file};
+    inputs.insert(inputs.end(), options.species_files.begin(), options.species_files.end());
+    for (const std::string& out : {options.output, options.plot}) {
+      if (!out.empty()) io::refuse_output_among_inputs(out, inputs);
     }
+    if (!options.plot.empty()) charts::image_format_of(options.plot);  // a bad name costs no rating
     io::FluidFactory fluids;
     for (const auto& path : options.species_files) fluids.add_species_file(path);
     const auto document = io::parse_json_strict(io::read_text_file(options.template_file), options.template_file);
@@ -63,6 +86,8 @@ int run_batch(const BatchCommandOptions& options) {
     batch.units = options.units == "us" ? io::UnitSystem::us : io::UnitSystem::si;
     batch.jobs = thread_count(options.jobs);
     batch.columns = options.columns;
+    charts::BatchChartData chart;
+    if (!options.plot.empty()) batch.points = &chart;
 
     const bool from_stdin = options.points == "-";
     const std::string points_name = from_stdin ? "standard input" : options.points;
@@ -85,6 +110,7 @@ int run_batch(const BatchCommandOptions& options) {
     const io::BatchSummary summary =
         io::rate_batch(*source, points_name, templ, *sink, batch, progress.get(), &notices);
     if (file) file->commit();
+    if (!options.plot.empty() && !write_chart(options.plot, chart, templ.input, points_name)) return kExitUnusable;
     if (summary.threads < batch.jobs) {
       std::cerr << fmt::format("warning: the system started {} of the {} threads asked for; the batch was rated on {}\n",
                                summary.threads, batch.jobs, summary.threads);

@@ -16,6 +16,7 @@ struct BatchCommandOptions {
   bool quiet = false;
   std::vector<std::string> species_files;
   std::vector<std::string> columns;  // --columns: result keys; empty for the defaults
+  std::string plot;                  // --plot FILE.svg|.png|.pdf: the batch chart; "" for none
 };
 
 // Runs a batch and returns the exit status (0 every row rated, 1 a row failed,

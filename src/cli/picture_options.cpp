@@ -3,6 +3,7 @@
 #include <iostream>
 
 #include "shaftwork/charts/plot_stream.hpp"
+#include "shaftwork/charts/report.hpp"
 #include "shaftwork/error.hpp"
 
 namespace shaftwork::cli {
@@ -22,6 +23,8 @@ void add_picture_options(CLI::App& sub, PictureOptions& options) {
   sub.add_option("--plot-diagram", options.diagram, "The process chart's axes: h-s (enthalpy) or T-s (temperature)")
       ->check(CLI::IsMember({"h-s", "T-s"}))
       ->capture_default_str();
+  sub.add_option("--report", options.report,
+                 "Write a test report of the cases into this PDF: one A4 page each (readable on Letter too)");
 }
 
 ResultTee::ResultTee(io::ResultStream& results, std::vector<std::unique_ptr<io::ResultStream>> pictures)
@@ -59,6 +62,13 @@ std::vector<std::unique_ptr<io::ResultStream>> picture_streams(const PictureOpti
   chart.system = system;
   chart.system_forced = system_forced;
   if (!options.plot.empty()) streams.push_back(charts::make_plot_stream(options.plot, chart));
+  if (!options.report.empty()) {
+    charts::ReportOptions report;
+    report.chart = chart;
+    report.table.system = system;
+    report.table.system_forced = system_forced;
+    streams.push_back(charts::make_report_stream(options.report, report));
+  }
   return streams;
 }
 

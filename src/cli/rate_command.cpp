@@ -233,8 +233,9 @@ int run_rate_batch(const RateOptions& options) {
         options.format);
     return kExitUnusable;
   }
-  if (options.pictures.any()) {
-    std::cerr << "error: --plot and --report draw the cases of JSON case files, not a batch of test points\n";
+  if (!options.pictures.report.empty()) {
+    std::cerr << "error: --report writes the cases of JSON case files; a batch of test points draws its chart with "
+                 "--plot FILE\n";
     return kExitUnusable;
   }
   BatchCommandOptions batch;
@@ -247,6 +248,7 @@ int run_rate_batch(const RateOptions& options) {
   batch.quiet = options.quiet;
   batch.species_files = options.species_files;
   batch.columns = options.columns;
+  batch.plot = options.pictures.plot;
   return run_batch(batch);
 }
 

@@ -127,7 +127,7 @@ class Pipeline {
     RowRater rater(shared_);
     for (bool more = true; more; more = next(job)) {
       const auto chunk_start = std::chrono::steady_clock::now();
-      rater.rate_chunk(job.chunk, job.out, job.counts);
+      rater.rate_chunk(job.chunk, job.out, job.counts, job.points);
       sizer_.observe(job.chunk.text.size(), seconds_since(chunk_start));
       finish(job);
     }
@@ -172,6 +172,7 @@ class Pipeline {
     if (!chunker_.next(job.chunk)) return false;
     job.out.clear();
     job.counts = RowCounts{};
+    job.points.clear();
     job.done = false;
     return true;
   }
@@ -179,6 +180,12 @@ class Pipeline {
   void finish(Job& job) {
     if (job.error) std::rethrow_exception(job.error);
     out_.write(job.out.view());
+    if (BatchPointSink* points = shared_.options.points) {
+      for (BatchPoint& p : job.points) {
+        p.row += summary_.rows;  // from the chunk's count to the batch's
+        points->add(p);
+      }
+    }
     summary_.rows += job.counts.rows;
     summary_.failed += job.counts.failed;
     summary_.guarantees_failed += job.counts.guarantees_failed;
@@ -217,6 +224,7 @@ BatchSummary rate_batch(ByteSource& points, const std::string& points_name, cons
   if (notices) {
     for (const std::string& n : plan.notices) notices->notice(n);
   }
+  if (options.points) options.points->time_column(plan.time_index ? plan.header[*plan.time_index] : "");
   const BatchShared shared(plan, templ, options, points_name);
   if (options.format == BatchFormat::csv) out.write(plan.output_header);
   return Pipeline(chunker, shared, out, progress, points.size_hint()).run(std::move(first));

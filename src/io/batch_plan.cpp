@@ -1,6 +1,7 @@
 #include "batch_plan.hpp"
 
 #include <algorithm>
+#include <cctype>
 #include <cmath>
 #include <functional>
 #include <string_view>
@@ -156,6 +157,17 @@ UncertaintyColumn uncertainty_column(std::size_t i, const std::string& header, c
   return u;
 }
 
+// A carried column that holds the rows' times, by its header: timestamp, time, date or
+// datetime (also date_time, date/time), in any case.
+bool names_a_time(std::string_view header) {
+  std::string name(trim(header));
+  std::transform(name.begin(), name.end(), name.begin(), [](unsigned char c) { return static_cast<char>(std::tolower(c)); });
+  for (const std::string_view n : {"timestamp", "time", "date", "datetime", "date_time", "date/time"}) {
+    if (name == n) return true;
+  }
+  return false;
+}
+
 void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_name,
                  const units::ParseContext& context) {
   const std::vector<std::string>& header = plan.header;
@@ -190,6 +202,7 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
       continue;
     }
     if (!spec) {
+      if (!plan.time_index && names_a_time(header[i])) plan.time_index = i;
       const std::string_view near = nearest_key(cell.key);
       plan.notices.push_back(fmt::format("{}: column {} \"{}\" names no case key: carried through unchanged{}",
                                          points_name, i + 1, header[i],
@@ -216,6 +229,7 @@ void plan_inputs(Plan& plan, std::size_t header_line, const std::string& points_
                        "a file of test points?",
                        points_name, header_line));
   }
+  if (!plan.time_index) plan.time_index = plan.id_index;
   // The barometer first: the gauge cells of its row need it.
   std::stable_partition(plan.inputs.begin(), plan.inputs.end(),
                         [](const InputColumn& c) { return c.input == Input::barometric_pressure; });

@@ -47,6 +47,7 @@ struct Plan {
   std::vector<std::string> header;   // the input header fields, as read
   std::vector<InputColumn> inputs;   // in the order cells are applied: the barometer first
   std::optional<std::size_t> id_index;
+  std::optional<std::size_t> time_index;  // the column BatchPoint::time is read from
   bool has_barometer_column = false;
   std::vector<OutputColumn> outputs;
   std::vector<UncertaintyColumn> uncertainty_columns;

@@ -12,6 +12,7 @@
 #include "shaftwork/io/guarantee_reader.hpp"
 #include "shaftwork/io/number_format.hpp"
 #include "shaftwork/io/result_writer.hpp"
+#include "shaftwork/io/timestamp.hpp"
 #include "shaftwork/io/uncertainty_input.hpp"
 #include "shaftwork/text.hpp"
 
@@ -132,6 +133,13 @@ UncertaintyPropagator propagator_for(const BatchShared& shared) {
   for (const OutputColumn& o : shared.plan.outputs) {
     keys.push_back(static_cast<std::size_t>(o.key - result_keys().data()));
   }
+  if (shared.options.points) {
+    // The chart's bands: the two efficiencies, whatever the columns.
+    for (const std::string_view key : {"efficiency.isentropic", "efficiency.polytropic"}) {
+      const std::size_t k = row_of(*find_result_key(key));
+      if (std::find(keys.begin(), keys.end(), k) == keys.end()) keys.push_back(k);
+    }
+  }
   return UncertaintyPropagator(std::move(keys));
 }
 
@@ -140,11 +148,14 @@ UncertaintyPropagator propagator_for(const BatchShared& shared) {
 RowRater::RowRater(const BatchShared& shared)
     : shared_(shared), plan_(shared.plan), input_(shared.base), propagator_(propagator_for(shared)) {}
 
-void RowRater::rate_chunk(CsvChunk& chunk, OutputBuffer& out, RowCounts& counts) {
+void RowRater::rate_chunk(CsvChunk& chunk, OutputBuffer& out, RowCounts& counts, std::vector<BatchPoint>& points) {
   CsvRecordParser parser(chunk.text, chunk.first_line);
+  const bool want_points = shared_.options.points != nullptr;
   while (parser.next(record_)) {
     ++counts.rows;
-    if (!rate_record(out, counts)) ++counts.failed;
+    const bool rated = rate_record(out, counts);
+    if (!rated) ++counts.failed;
+    if (want_points) points.push_back(point_of(rated, counts.rows));
   }
 }
 
@@ -164,6 +175,28 @@ void RowRater::judge_guarantee(std::size_t line, RowCounts& counts) {
     guarantee_error_ = fmt::format("guarantee: {}", e.what());
     ++counts.guarantees_not_judged;
   }
+}
+
+BatchPoint RowRater::point_of(bool rated, std::size_t row) const {
+  BatchPoint p;
+  p.row = row;
+  p.rated = rated;
+  if (plan_.time_index && *plan_.time_index < record_.fields.size()) {
+    if (const auto t = parse_timestamp(trim(record_.fields[*plan_.time_index]))) p.time = *t;
+  }
+  if (!rated) return p;
+  p.efficiency_isentropic = rating_.efficiency_isentropic;
+  p.efficiency_polytropic = rating_.efficiency_polytropic;
+  if (rating_.power_balance) p.balance_percent = rating_.power_balance->difference_percent;
+  if (rated_uncertainty_) {
+    const auto expanded = [&](std::string_view key) {
+      const std::optional<double> u = uncertainty_.expanded[row_of(*find_result_key(key))];
+      return u ? *u : BatchPoint::kNone;
+    };
+    p.uncertainty_isentropic = expanded("efficiency.isentropic");
+    p.uncertainty_polytropic = expanded("efficiency.polytropic");
+  }
+  return p;
 }
 
 bool RowRater::rate_record(OutputBuffer& out, RowCounts& counts) {

@@ -61,11 +61,14 @@ class RowRater {
   explicit RowRater(const BatchShared& shared);
 
   // Rates every record of `chunk`, appending the output to `out`.
-  void rate_chunk(CsvChunk& chunk, OutputBuffer& out, RowCounts& counts);
+  // With BatchOptions::points set, each row's BatchPoint goes to `points` too (its row
+  // counted within the chunk).
+  void rate_chunk(CsvChunk& chunk, OutputBuffer& out, RowCounts& counts, std::vector<BatchPoint>& points);
 
  private:
   bool rate_record(OutputBuffer& out, RowCounts& counts);
   void judge_guarantee(std::size_t line, RowCounts& counts);
+  BatchPoint point_of(bool rated, std::size_t row) const;
   bool apply_cells(std::size_t line);
   bool apply(const InputColumn& c, std::string_view raw, std::size_t line);
   bool apply_uncertainties(std::size_t line);

@@ -44,7 +44,7 @@ void WorkerPool::wait(Job* job) {
 
 void WorkerPool::run(RowRater& rater, Job& job) {
   try {
-    rater.rate_chunk(job.chunk, job.out, job.counts);
+    rater.rate_chunk(job.chunk, job.out, job.counts, job.points);
   } catch (...) {
     job.error = std::current_exception();
   }

@@ -19,6 +19,7 @@ struct Job {
   CsvChunk chunk;
   OutputBuffer out;
   RowCounts counts;
+  std::vector<BatchPoint> points;  // when BatchOptions::points is set
   bool done = false;
   std::exception_ptr error;
 };

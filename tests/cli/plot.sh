@@ -82,4 +82,56 @@ expect "--plot into a missing directory: exit 2" $(( $? == 2 ? 0 : 1 ))
 grep -q "^error: $tmp/no/such/dir.png: " "$tmp/dir.err"
 expect "--plot into a missing directory: the file named" $? "$(cat "$tmp/dir.err")"
 
+# --report: one A4 page per case, failed ones too, with the caution; a name not .pdf refused.
+"$bin" rate examples/steam-turbines.json "$tmp/mixed.json" --report "$tmp/report.pdf" >"$tmp/report.out" 2>/dev/null
+expect "--report with a failed case: exit 1" $(( $? == 1 ? 0 : 1 ))
+cmp -s "$tmp/report.out" <("$bin" rate examples/steam-turbines.json "$tmp/mixed.json" 2>/dev/null)
+expect "results unchanged by --report" $?
+pdfinfo "$tmp/report.pdf" | grep -qE '^Pages: +5$'
+expect "--report: a page per case (3 + 2)" $? "$(pdfinfo "$tmp/report.pdf" | grep Pages)"
+pdfinfo "$tmp/report.pdf" | grep -qF 'Page size:       595.28 x 841.89 pts (A4)'
+expect "--report: A4 pages" $?
+pdftotext -layout "$tmp/report.pdf" "$tmp/report.txt"
+for text in "TG-2 condensing turbine, guaranteed efficiency" "isentropic efficiency" "Caution" \
+            "never replace, the governing test codes" "Property model: iapws-if97" "Not rated" "too few knowns"; do
+  grep -qF "$text" "$tmp/report.txt"
+  expect "report text: $text" $?
+done
+[ "$(grep -c "^Caution" "$tmp/report.txt")" = 5 ]
+expect "the caution on every page" $?
+"$bin" check examples/steam-turbines.json --report "$tmp/check-report.pdf" >/dev/null 2>&1
+pdfinfo "$tmp/check-report.pdf" | grep -qE '^Pages: +3$'
+expect "check --report: a page per case" $?
+"$bin" rate "$tmp/one.json" --report "$tmp/report.png" >"$tmp/rpng.out" 2>"$tmp/rpng.err"
+expect "--report .png: exit 2" $(( $? == 2 ? 0 : 1 ))
+[ "$(cat "$tmp/rpng.err")" = "error: $tmp/report.png: a report is written as .pdf" ] && [ ! -s "$tmp/rpng.out" ]
+expect "--report .png: the message, no results" $? "$(cat "$tmp/rpng.err")"
+
+# A batch: one chart of the whole log, against the id column's timestamps; its 4 bad rows
+# give exit 1, the results are those without --plot.
+week=(examples/compressor-week-log.csv --case examples/compressor-week-log.template.json --quiet)
+"$bin" rate "${week[@]}" --plot "$tmp/week.png" >"$tmp/week.csv" 2>"$tmp/week.err"
+expect "batch --plot: exit 1 for its failed rows" $(( $? == 1 ? 0 : 1 )) "$(cat "$tmp/week.err")"
+cmp -s "$tmp/week.csv" <("$bin" rate "${week[@]}" 2>/dev/null)
+expect "batch results unchanged by --plot" $?
+file "$tmp/week.png" | grep -q "PNG image data, 1080 x 720"
+expect "batch --plot: a 1080 x 720 PNG" $? "$(file "$tmp/week.png")"
+"$bin" rate "${week[@]}" --plot "$tmp/week.pdf" >/dev/null 2>&1
+pdfinfo "$tmp/week.pdf" | grep -qE '^Pages: +1$'
+expect "batch --plot PDF: one page" $?
+pdftotext -layout "$tmp/week.pdf" "$tmp/week.txt"
+for text in "PAC-3 first stage, week log template" 'time (column "id")' "10080" "10076" "failed row" \
+            "efficiency [-]" "power balance diff. [%]" "03-04"; do
+  grep -qF "$text" "$tmp/week.txt"
+  expect "batch PDF text: $text" $? "$(cat "$tmp/week.txt")"
+done
+"$bin" rate "${week[@]}" --plot "$tmp/week.gif" >"$tmp/gif.out" 2>"$tmp/gif.err"
+expect "batch --plot .gif: exit 2" $(( $? == 2 ? 0 : 1 ))
+[ "$(cat "$tmp/gif.err")" = "error: $tmp/week.gif: a picture is written as .svg, .png or .pdf; this name ends in \".gif\"" ] && [ ! -s "$tmp/gif.out" ]
+expect "batch --plot .gif: the message, no results" $? "$(cat "$tmp/gif.err")"
+"$bin" rate "${week[@]}" --report "$tmp/week-report.pdf" >/dev/null 2>"$tmp/rep.err"
+expect "batch --report: exit 2" $(( $? == 2 ? 0 : 1 ))
+[ "$(cat "$tmp/rep.err")" = "error: --report writes the cases of JSON case files; a batch of test points draws its chart with --plot FILE" ]
+expect "batch --report: the message" $? "$(cat "$tmp/rep.err")"
+
 finish

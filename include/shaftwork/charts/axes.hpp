@@ -32,8 +32,22 @@ std::vector<double> nice_ticks(double low, double high, int target);
 // [low, high] widened by `margin` of its span on each side (a span of 0 gets one of its own).
 void pad_range(double& low, double& high, double margin);
 
-// The grid, the frame, the tick labels and the two axis titles.
-void draw_axes(cairo_t* cr, const Axes& axes, const std::string& x_title, const std::string& y_title);
+// A tick of an axis: where, and its label.
+struct Tick {
+  double at = 0;
+  std::string text;
+};
+// nice_ticks, each labelled with as few decimals as the step needs.
+std::vector<Tick> value_ticks(double low, double high, int target);
+// Ticks at whole steps of a clock (1, 5, 10, 15, 30 min; 1, 2, 3, 6, 12 h; 1, 2, 7 days),
+// the fewest that give at most `target`, on seconds as io::parse_timestamp counts them;
+// labelled "03-02 06:00" (month, day, time), or "03-02" for steps of a day and more.
+std::vector<Tick> time_ticks(double low, double high, int target);
+
+// The grid, the frame, the tick labels and the two axis titles; the x ticks are
+// value_ticks(x_low, x_high, 6) unless given.
+void draw_axes(cairo_t* cr, const Axes& axes, const std::string& x_title, const std::string& y_title,
+               const std::vector<Tick>* x_ticks = nullptr);
 // Restricts drawing to the plot area until cairo_restore.
 void clip_to(cairo_t* cr, const Rect& area);
 

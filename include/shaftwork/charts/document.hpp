@@ -28,6 +28,9 @@ struct Rect {
   double x = 0, y = 0, width = 0, height = 0;
 };
 
+// The page of a chart on its own (--plot): 720 x 480 points, 10 x 6.67 inches.
+inline constexpr Rect kChartPage{0, 0, 720, 480};
+
 // A PNG holds this many pixels per point (108 pixels per inch): a 720 x 480 pt chart is
 // 1080 x 720 pixels. rsvg-convert and pdftoppm at 108 dpi give the same raster.
 inline constexpr double kPngPixelsPerPoint = 1.5;

@@ -26,7 +26,18 @@ void draw_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size = 9);
 // Text with its baseline at `at.y`; returns its width in points.
 double draw_text(cairo_t* cr, Point at, const std::string& text, double size, Align align = Align::left,
                  bool bold = false, Colour c = kInk);
+// Text in DejaVu Sans Mono (a table's columns), baseline at `at.y`.
+void draw_mono_text(cairo_t* cr, Point at, const std::string& text, double size);
+// The width `text` takes, in points.
+double text_width(cairo_t* cr, const std::string& text, double size, bool bold = false, bool mono = false);
+// `text` broken at spaces into lines no wider than `width` (a word wider than that stands alone).
+std::vector<std::string> wrap_text(cairo_t* cr, const std::string& text, double size, double width);
 // The same turned a quarter to the left (an axis title), centred on `at`.
 void draw_vertical_text(cairo_t* cr, Point at, const std::string& text, double size);
+
+// One row of a legend at (x, y): a sample of the mark (when `mark` is given) or of the line,
+// then its text. Returns the next row's y.
+double legend_row(cairo_t* cr, double x, double y, const std::string& text, Colour c, Dash dash, double width,
+                  const Mark* mark);
 
 }  // namespace shaftwork::charts

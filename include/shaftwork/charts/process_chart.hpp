@@ -61,6 +61,4 @@ Axes process_axes(const ProcessChart& chart, const Rect& frame);
 // page size, kChartPage).
 void draw_process_chart(cairo_t* cr, const ProcessChart& chart, const Rect& frame);
 
-inline constexpr Rect kChartPage{0, 0, 720, 480};
-
 }  // namespace shaftwork::charts

@@ -12,6 +12,7 @@
 #pragma once
 
 #include <cstddef>
+#include <limits>
 #include <optional>
 #include <string>
 #include <vector>
@@ -30,6 +31,28 @@ enum class BatchFormat {
   xlsx,   // the csv's rows as a workbook: a row of keys, a row of units, numbers as numbers
 };
 
+// The few numbers of one row that a batch chart draws; NaN where the row has none.
+struct BatchPoint {
+  static constexpr double kNone = std::numeric_limits<double>::quiet_NaN();
+  std::size_t row = 0;  // 1 for the first data row
+  double time = kNone;  // the row's timestamp (io/timestamp.hpp), in seconds
+  bool rated = false;
+  double efficiency_isentropic = kNone, efficiency_polytropic = kNone;
+  // Their expanded uncertainties, where the batch states uncertainties (docs/uncertainty.md).
+  double uncertainty_isentropic = kNone, uncertainty_polytropic = kNone;
+  double balance_percent = kNone;  // power_balance.difference_percent
+};
+
+// Hears of every row as the batch writes it: in row order, on the thread that called
+// rate_batch, so it may keep what it likes (a chart keeps a bounded summary).
+class BatchPointSink {
+ public:
+  virtual ~BatchPointSink() = default;
+  // Once, before the first row: the header of the column the times come from, "" for none.
+  virtual void time_column(const std::string& header) = 0;
+  virtual void add(const BatchPoint& point) = 0;
+};
+
 struct BatchOptions {
   BatchFormat format = BatchFormat::csv;
   UnitSystem units = UnitSystem::si;  // of the csv result columns
@@ -37,6 +60,9 @@ struct BatchOptions {
   std::size_t chunk_bytes = 256 * 1024;  // the largest chunk; slow rows get smaller ones
   // The result columns of the csv, by dotted result key (--columns); empty: the defaults.
   std::vector<std::string> columns;
+  // Told each row's BatchPoint when set. The times come from the first carried column
+  // headed timestamp, time, date or datetime (in any case), else from the id column.
+  BatchPointSink* points = nullptr;
 };
 
 // Told how far the batch has got, from the thread that called rate_batch, after each
