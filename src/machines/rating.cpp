@@ -264,7 +264,8 @@ std::string ideal_gas_warning(const Problem& problem, const Rating& r) {
                        problem.show(Q::inlet_temperature, s->temperature), 100 * std::fabs(1 - *z));
   }
   const double p_max = std::max(r.inlet.pressure, r.outlet.pressure);
-  if (!problem.fluid.estimated_compressibility(p_max, r.inlet.temperature) && p_max > kIdealGasWarningPressure) {
+  // The pressure first: below it the estimate (a cubic's roots) is not needed.
+  if (p_max > kIdealGasWarningPressure && !problem.fluid.estimated_compressibility(p_max, r.inlet.temperature)) {
     return fmt::format("the {} model is an ideal gas, and this machine runs up to {}: real-gas effects are not "
                        "modelled and can move efficiency and power by several percent",
                        problem.fluid.model_name(), problem.show(Q::outlet_pressure, p_max));
