@@ -12,6 +12,7 @@
 #include "commands.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/text.hpp"
+#include "shaftwork/io/number_format.hpp"
 #include "shaftwork/io/case_runner.hpp"
 #include "shaftwork/io/display_units.hpp"
 #include "shaftwork/io/fluid_factory.hpp"
@@ -55,20 +56,27 @@ Given quantity(const std::string& text, units::Dimension d, const char* option, 
   return {q.si, q.unit};
 }
 
+// cp (and with it k) as the equation gives it means something only where cp >= cv > 0: at
+// water's critical point cp diverges, and IF97's region 3 there gives (dp/drho)_T <= 0 and a
+// cp of either sign and any size.
+bool heat_capacities_defined(const fluids::State& s) { return !s.is_wet() && s.cv > 0 && s.cp >= s.cv; }
+constexpr std::string_view kNotDefined = "not defined here: at the critical point cp diverges";
+
 nlohmann::ordered_json state_json(const fluids::State& s) {
   nlohmann::ordered_json j;
-  j["pressure"] = s.pressure;
-  j["temperature"] = s.temperature;
-  j["enthalpy"] = s.enthalpy;
-  j["entropy"] = s.entropy;
-  j["density"] = s.density;
+  j["pressure"] = io::rounded_for_output(s.pressure);
+  j["temperature"] = io::rounded_for_output(s.temperature);
+  j["enthalpy"] = io::rounded_for_output(s.enthalpy);
+  j["entropy"] = io::rounded_for_output(s.entropy);
+  j["density"] = io::rounded_for_output(s.density);
   // Heat capacities are not defined for a wet state; unknown values print as null.
-  j["cp"] = s.is_wet() ? nlohmann::ordered_json() : nlohmann::ordered_json(s.cp);
-  j["cv"] = s.is_wet() ? nlohmann::ordered_json() : nlohmann::ordered_json(s.cv);
-  j["k"] = s.is_wet() ? nlohmann::ordered_json() : nlohmann::ordered_json(s.k());
+  const bool defined = heat_capacities_defined(s);
+  j["cp"] = defined ? nlohmann::ordered_json(io::rounded_for_output(s.cp)) : nlohmann::ordered_json();
+  j["cv"] = s.is_wet() ? nlohmann::ordered_json() : nlohmann::ordered_json(io::rounded_for_output(s.cv));
+  j["k"] = defined ? nlohmann::ordered_json(io::rounded_for_output(s.k())) : nlohmann::ordered_json();
   j["molar_mass"] = s.molar_mass > 0 ? nlohmann::ordered_json(s.molar_mass) : nlohmann::ordered_json();
-  j["compressibility"] = s.compressibility > 0 ? nlohmann::ordered_json(s.compressibility) : nlohmann::ordered_json();
-  if (s.quality) j["quality"] = *s.quality;
+  j["compressibility"] = s.compressibility > 0 ? nlohmann::ordered_json(io::rounded_for_output(s.compressibility)) : nlohmann::ordered_json();
+  if (s.quality) j["quality"] = io::rounded_for_output(*s.quality);
   return j;
 }
 
@@ -105,9 +113,13 @@ struct StateTable {
     if (s.quality) {
       row("quality", *s.quality, D::fraction, "", dec4, "vapour mass fraction");
     } else {
-      row("cp", s.cp, D::specific_heat, "", sig5, "");
+      if (heat_capacities_defined(s)) {
+        row("cp", s.cp, D::specific_heat, "", sig5, "");
+      } else {
+        std::cout << fmt::format("  {:<31}{}\n", "cp", kNotDefined);
+      }
       row("cv", s.cv, D::specific_heat, "", sig5, "");
-      row("k = cp/cv", s.k(), D::fraction, "", sig5, "");
+      if (heat_capacities_defined(s)) row("k = cp/cv", s.k(), D::fraction, "", sig5, "");
     }
     if (s.molar_mass > 0) row("molar mass", s.molar_mass, D::molar_mass, "", sig5, "");
     if (s.compressibility > 0) row("compressibility", s.compressibility, D::fraction, "", sig5, "");

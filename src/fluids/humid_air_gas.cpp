@@ -13,6 +13,13 @@ HumidAirGas::HumidAirGas(const HumidAir& humid, const MoistAirState& air)
                                air.humidity_ratio, 100 * air.relative_humidity, air.temperature,
                                air.pressure / 1000)) {}
 
+HumidAirGas::HumidAirGas(const HumidAir& humid, double humidity_ratio)
+    : humidity_ratio_(humidity_ratio),
+      water_mole_fraction_(humidity_ratio / (humid.water_molar_mass() / humid.dry_gas_molar_mass() + humidity_ratio)),
+      description_(fmt::format("humid air, humidity ratio {:.5f} kg/kg", humidity_ratio)) {
+  gas_ = std::make_shared<NasaPolynomialGas>(humid.components(water_mole_fraction_), CompositionBasis::mole);
+}
+
 std::optional<double> HumidAirGas::dew_point(double p) const {
   if (!(water_mole_fraction_ > 0)) return std::nullopt;
   return water_dew_point(water_mole_fraction_ * p);

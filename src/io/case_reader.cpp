@@ -57,10 +57,10 @@ machines::MachineKind read_machine(const json& c, std::string& written) {
   if (!c.contains(key)) refuse("machine: missing; give \"compressor\", \"turbine\" or \"pump\"");
   const json& m = c[key];
   written = m.is_string() ? m.get<std::string>() : m.dump();
-  if (m == "compressor" || m == "fan") return machines::MachineKind::compressor;
+  if (m == "compressor" || m == "fan" || m == "blower") return machines::MachineKind::compressor;
   if (m == "turbine" || m == "expander") return machines::MachineKind::turbine;
   if (m == "pump") return machines::MachineKind::pump;
-  refuse(fmt::format("machine: unknown machine {}; give \"compressor\" (or \"fan\"), \"turbine\" (or "
+  refuse(fmt::format("machine: unknown machine {}; give \"compressor\" (or \"fan\", \"blower\"), \"turbine\" (or "
                      "\"expander\") or \"pump\"",
                      m.dump()));
 }

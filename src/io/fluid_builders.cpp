@@ -180,14 +180,22 @@ std::shared_ptr<const fluids::FluidModel> make_humid_air(const BuildContext& c) 
   json air = named_gas_composition("air", c.path);
   std::vector<std::string> ignored;
   const fluids::HumidAir humid(read_composition(air, c.path, c.species, "humid-air", ignored).components, c.species);
-  if (!c.site.pressure || !c.site.temperature) {
-    refuse(fmt::format("{}: humid-air takes its water content at the inlet state: give inlet.pressure and "
-                       "inlet.temperature",
+  const bool inlet_known = c.site.pressure && c.site.temperature;
+  if (rh && !inlet_known) {
+    refuse(fmt::format("{}: a relative humidity is taken at the inlet state: give inlet.pressure and "
+                       "inlet.temperature, or a \"humidity_ratio\" instead",
                        c.path));
   }
   try {
     const double value = read_number(c.fluid, rh ? "relative_humidity" : "humidity_ratio",
                                      units::Dimension::fraction, c.path);
+    if (!inlet_known) {  // a batch template: each row brings its inlet; the rating warns below the dew point
+      if (!(std::isfinite(value) && value >= 0)) {
+        refuse(fmt::format("humidity ratio must be a finite number of 0 or more kg water per kg dry gas, got {:.6g}",
+                           value));
+      }
+      return std::make_shared<fluids::HumidAirGas>(humid, value);
+    }
     const fluids::MoistAirState state = rh ? humid.at_relative_humidity(*c.site.pressure, *c.site.temperature, value)
                                            : humid.at_humidity_ratio(*c.site.pressure, *c.site.temperature, value);
     return std::make_shared<fluids::HumidAirGas>(humid, state);

@@ -70,12 +70,12 @@ std::vector<ResultKey> make_rows() {
        std::nullopt, "isentropic outlet pressure", sig(5), S::hidden, not_in_batch},
       {"outlet_isentropic.temperature", Dimension::temperature,
        [](R r) -> O { return r.outlet_isentropic.temperature; }, std::nullopt, "isentropic outlet temperature",
-       dec(2), S::derived, batch},
+       dec(2), S::derived, batch, Applies::always, false},
       {"outlet_isentropic.enthalpy", Dimension::specific_energy,
        [](R r) -> O { return r.outlet_isentropic.enthalpy; }, std::nullopt, "isentropic outlet enthalpy", sig(6),
        S::hidden, not_in_batch},
       {"outlet_isentropic.quality", Dimension::fraction, [](R r) -> O { return r.outlet_isentropic.quality; },
-       std::nullopt, "isentropic outlet quality", dec(4), S::derived, batch, Applies::two_phase},
+       std::nullopt, "isentropic outlet quality", dec(4), S::derived, batch, Applies::two_phase, false},
       {"outlet_isentropic.compressibility", Dimension::fraction,
        [](R r) -> O { return real_gas(r, r.outlet_isentropic.compressibility); }, std::nullopt,
        "isentropic outlet compressibility Z", sig(5), S::hidden, not_in_batch},
@@ -86,7 +86,7 @@ std::vector<ResultKey> make_rows() {
       {key_of(Input::power), Dimension::power, [](R r) -> O { return r.power; }, Q::power, "shaft power", sig(5),
        S::size, batch},
       {"fluid_power", Dimension::power, [](R r) -> O { return r.fluid_power; }, std::nullopt, "fluid power",
-       sig(5), S::derived, batch},
+       sig(5), S::derived, batch, Applies::always, false},
       {key_of(Input::mechanical_efficiency), Dimension::fraction,
        [](R r) -> O { return r.mechanical_efficiency; }, std::nullopt, "mechanical efficiency", dec(4),
        S::hidden, not_in_batch},
@@ -95,25 +95,25 @@ std::vector<ResultKey> make_rows() {
        S::efficiency, batch},
       {key_of(Input::efficiency_polytropic), Dimension::fraction,
        [](R r) -> O { return r.polytropic ? O(r.efficiency_polytropic) : std::nullopt; }, Q::efficiency,
-       "polytropic efficiency", dec(4), S::efficiency, batch, Applies::always, Needs::polytropic},
+       "polytropic efficiency", dec(4), S::efficiency, batch, Applies::always, false, Needs::polytropic},
       {"efficiency.polytropic_schultz", Dimension::fraction,
        [](R r) -> O { return r.schultz ? O(r.schultz->polytropic_efficiency) : std::nullopt; }, std::nullopt,
-       "Schultz polytropic efficiency", dec(4), S::derived, batch, Applies::real_gas, Needs::polytropic},
+       "Schultz polytropic efficiency", dec(4), S::derived, batch, Applies::real_gas, true, Needs::polytropic},
       {"head.isentropic", Dimension::specific_energy, [](R r) -> O { return r.head_isentropic; }, std::nullopt,
-       "isentropic head", sig(5), S::derived, batch},
+       "isentropic head", sig(5), S::derived, batch, Applies::always, false},
       {"head.polytropic", Dimension::specific_energy,
        [](R r) -> O { return r.polytropic ? O(r.head_polytropic) : std::nullopt; }, std::nullopt, "polytropic head",
-       sig(5), S::derived, batch, Applies::always, Needs::polytropic},
+       sig(5), S::derived, batch, Applies::always, false, Needs::polytropic},
       {"head.polytropic_schultz", Dimension::specific_energy,
        [](R r) -> O { return r.schultz ? O(r.schultz->polytropic_head) : std::nullopt; }, std::nullopt,
-       "Schultz polytropic head", sig(5), S::derived, batch, Applies::real_gas, Needs::polytropic},
+       "Schultz polytropic head", sig(5), S::derived, batch, Applies::real_gas, true, Needs::polytropic},
       {"schultz_factor", Dimension::fraction,
        [](R r) -> O { return r.schultz ? O(r.schultz->schultz_factor) : std::nullopt; }, std::nullopt,
-       "Schultz factor f", sig(5), S::derived, batch, Applies::real_gas, Needs::polytropic},
+       "Schultz factor f", sig(5), S::derived, batch, Applies::real_gas, true, Needs::polytropic},
       {"specific_work", Dimension::specific_energy, [](R r) -> O { return r.specific_work; }, std::nullopt,
-       "specific work", sig(5), S::derived, batch},
+       "specific work", sig(5), S::derived, batch, Applies::always, false},
       {"pressure_ratio", Dimension::fraction, [](R r) -> O { return r.pressure_ratio; }, std::nullopt,
-       "pressure ratio", sig(5), S::derived, batch},
+       "pressure ratio", sig(5), S::derived, batch, Applies::always, false},
       {"head_height", Dimension::length, [](R r) -> O { return r.head_height; }, std::nullopt, "pump head",
        sig(5), S::derived, batch, Applies::pump},
       {"hydraulic_power", Dimension::power, [](R r) -> O { return r.hydraulic_power; }, std::nullopt,
@@ -164,7 +164,8 @@ ResultNumbers result_numbers(const Rating& rating) {
 
 machines::RatingOptions rating_options_for(const std::vector<const ResultKey*>& keys) {
   machines::RatingOptions options;
-  options.polytropic = std::any_of(keys.begin(), keys.end(), [](const ResultKey* k) { return k->needs == Needs::polytropic; });
+  options.polytropic =
+      std::any_of(keys.begin(), keys.end(), [](const ResultKey* k) { return k->needs == Needs::polytropic; });
   return options;
 }
 

@@ -54,7 +54,7 @@ class CaseTable {
 
   void result_row(const ResultKey& k, std::string_view note) {
     const std::optional<double> v = k.value(r_);
-    if (!v) return;
+    if (!v || (r_.machine == machines::MachineKind::pump && !k.pump_table)) return;
     printed_.push_back(&k);
     const std::optional<double> u = uncertainty_of(k);
     const bool shown = o_.uncertainty && !(u && *u == 0);  // "± 0" only says nothing was stated

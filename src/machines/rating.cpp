@@ -275,6 +275,12 @@ std::string ideal_gas_warning(const Problem& problem, const Rating& r) {
 
 void add_warnings(const Problem& problem, const Endpoints& e, Rating& r) {
   if (std::string warning = ideal_gas_warning(problem, r); !warning.empty()) r.warnings.push_back(std::move(warning));
+  if (const auto dew = problem.fluid.dew_point(r.inlet.pressure); dew && r.inlet.temperature < *dew) {
+    r.warnings.push_back(fmt::format("the inlet temperature {} lies below the dew point {} of the gas's water vapour: "
+                                     "the stated moisture cannot be all vapour there; check the humidity",
+                                     problem.show(Q::inlet_temperature, r.inlet.temperature),
+                                     problem.show(Q::inlet_temperature, *dew)));
+  }
   if (const auto dew = problem.fluid.dew_point(r.outlet.pressure); dew && r.outlet.temperature < *dew) {
     r.warnings.push_back(fmt::format("the outlet temperature {} lies below the dew point {} of the gas's water vapour: "
                                      "water would condense, which the model does not describe",

@@ -132,4 +132,20 @@ assert peak_mb < 100, peak_mb
 PY
 expect "two million rows rate in under 100 MB resident" $?
 
+# Humid air in a template by its humidity ratio alone (each row brings its inlet); a row
+# whose inlet lies below the dew point of that moisture is rated and warned about. The dew
+# point of W = 0.011 kg/kg at the inlet, 98.56 kPa, is about 15.1 degC (p_w = 1.713 kPa; IAPWS-IF97
+# saturation, python3-iapws).
+cat >"$tmp/humid.json" <<'JSON'
+{"id": "humid", "machine": "blower", "fluid": {"model": "humid-air", "humidity_ratio": 0.011},
+ "site": {"barometric_pressure": "1008 mbar"}, "mechanical_efficiency": 0.97}
+JSON
+printf 'time,inlet.pressure [inH2Og],inlet.temperature [degC],outlet.pressure [mbarg],outlet.temperature [degC]\n08:00,-9,24.0,640,87.0\n04:00,-9,12.0,640,74.0\n' >"$tmp/humid.csv"
+"$bin" rate "$tmp/humid.csv" --case "$tmp/humid.json" -o "$tmp/humid-out.csv" 2>"$tmp/humid.err"
+status=$?
+[ "$status" -eq 0 ] && [ "$(grep -c ',ok,' "$tmp/humid-out.csv")" -eq 2 ] &&
+  grep -q '^04:00,.*the inlet temperature 12 degC lies below the dew point 15\.[0-9]* degC' "$tmp/humid-out.csv" &&
+  ! grep -q '^08:00,.*dew point' "$tmp/humid-out.csv"
+expect "a humidity ratio in a template rates each row and warns below its dew point" $? "$(cat "$tmp/humid.err" "$tmp/humid-out.csv")"
+
 finish

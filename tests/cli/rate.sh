@@ -17,10 +17,12 @@ expect "no nan/inf in example output" $?
 import json, sys
 doc = json.load(open(sys.argv[1]))
 keys = ["id", "status", "machine", "model", "solved_for", "inlet", "outlet", "outlet_isentropic",
-        "mass_flow", "power", "fluid_power", "efficiency", "head", "pressure_ratio", "warnings"]
+        "efficiency", "head", "specific_work", "pressure_ratio", "warnings"]
+size = ["mass_flow", "power", "fluid_power"]  # absent together in an unsized rating (four knowns)
 for r in doc["results"]:
     missing = [k for k in keys if k not in r]
     assert not missing, (r["id"], missing)
+    assert all(k in r for k in size) or not any(k in r for k in size), (r["id"], "size keys in part")
     for side in ("inlet", "outlet"):
         for k in ("pressure", "temperature", "enthalpy", "entropy", "density"):
             assert k in r[side], (r["id"], side, k)

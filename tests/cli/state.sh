@@ -28,4 +28,14 @@ expect "CO2 density from p M / (R T)" $? "$(grep density "$tmp/co2.txt")"
 grep -qE '^  quality +0\.7010 +vapour mass fraction$' "$tmp/wet.txt" && ! grep -q '^  cp ' "$tmp/wet.txt"
 expect "a wet state shows its quality" $? "$(cat "$tmp/wet.txt")"
 
+# At water's critical point cp diverges: IF97's region 3 gives a cp of any sign and size
+# there, which is not printed as a number (nor k); cv is finite (python3-iapws 4.54 kJ/(kg K)).
+"$bin" state --fluid steam --pressure "22.064 MPa" --enthalpy "2087.546845 kJ/kg" >"$tmp/critical.txt"
+grep -qF '  cp                             not defined here: at the critical point cp diverges' "$tmp/critical.txt" &&
+  ! grep -q 'k = cp/cv' "$tmp/critical.txt" && grep -q '  cv                             4.53' "$tmp/critical.txt"
+expect "the critical point prints no cp and no k" $? "$(cat "$tmp/critical.txt")"
+"$bin" state --fluid steam --pressure "22.064 MPa" --enthalpy "2087.546845 kJ/kg" --format json >"$tmp/critical.json"
+grep -q '"cp": null' "$tmp/critical.json" && grep -q '"k": null' "$tmp/critical.json"
+expect "the critical point's JSON has cp and k null" $? "$(cat "$tmp/critical.json")"
+
 finish

@@ -118,9 +118,9 @@ TEST_CASE("bad values are refused naming the key") {
         "inlet.pressure: \"3 degC\": a temperature unit where a pressure belongs");
   CHECK(refusal(R"({"machine": "compressor", "fluid": "air", "inlet": {"pressure": true}})") ==
         "inlet.pressure: expected a number or a string such as \"<number> <unit>\", got boolean");
-  CHECK(refusal(R"({"machine": "blower", "fluid": "air"})") ==
-        "machine: unknown machine \"blower\"; give \"compressor\" (or \"fan\"), \"turbine\" (or \"expander\") or "
-        "\"pump\"");
+  CHECK(refusal(R"({"machine": "mixer", "fluid": "air"})") ==
+        "machine: unknown machine \"mixer\"; give \"compressor\" (or \"fan\", \"blower\"), \"turbine\" (or "
+        "\"expander\") or \"pump\"");
   CHECK(refusal(R"({"machine": "compressor", "fluid": "air", "efficiency": "105 %"})") ==
         "efficiency: must be above 0 and at most 1 (or 100 %), got 1.05");
   CHECK(refusal(R"({"machine": "compressor", "fluid": "air", "efficiency": {"isentropic": 0.8, "polytropic": 0.82}})") ==
@@ -268,5 +268,6 @@ TEST_CASE("humid air takes its water content at the inlet state and warns below 
   CHECK(warned);
   CHECK_FALSE(outcomes[2].ok());
   CHECK(outcomes[2].error ==
-        "fluid: humid-air takes its water content at the inlet state: give inlet.pressure and inlet.temperature");
+        "fluid: a relative humidity is taken at the inlet state: give inlet.pressure and inlet.temperature, or a "
+        "\"humidity_ratio\" instead");
 }

@@ -21,6 +21,9 @@ class HumidAirGas final : public FluidModel {
   // `air`: the moist air at the state that fixed its water content (its humidity ratio
   // and water mole fraction are used); `humid`: the dry gas it was computed for.
   HumidAirGas(const HumidAir& humid, const MoistAirState& air);
+  // At a humidity ratio W [kg water / kg dry gas] alone, with no state to relate it to (a
+  // batch template, whose rows each bring their inlet).
+  HumidAirGas(const HumidAir& humid, double humidity_ratio);
 
   State from_pt(double p, double T) const override { return gas_->from_pt(p, T); }
   State from_ph(double p, double h) const override { return gas_->from_ph(p, h); }

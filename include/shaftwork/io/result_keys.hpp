@@ -60,6 +60,10 @@ struct ResultKey {
   Section section;
   bool in_batch;  // a default column of a batch's CSV (docs/batch.md says why some are not)
   Applies applies = Applies::always;
+  // Shown in a pump's table. A pump engineer reads head as a height, the hydraulic power and
+  // the pump efficiency; polytropic values, heads in energy per mass, the pressure ratio and
+  // the isentropic outlet are a gas machine's (JSON and CSV keep them for every machine).
+  bool pump_table = true;
   Needs needs = Needs::states;
 };
 
