@@ -444,7 +444,7 @@ TEST_CASE("--columns without a polytropic key skips the polytropic path and writ
   const std::string full = run({});
   const std::string narrow = run({"efficiency.isentropic", "power"});
   CHECK(lines_of(narrow).size() == 5);
-  for (const std::string header : {"status", "error", "efficiency.isentropic", "power [kW]", "warnings"}) {
+  for (const char* header : {"status", "error", "efficiency.isentropic", "power [kW]", "warnings"}) {
     CAPTURE(header);
     CHECK(column_of(narrow, header) == column_of(full, header));
   }
