@@ -1,9 +1,10 @@
 #!/usr/bin/env bash
-# Batch rating speed (issue 5): a NASA-air compressor log, CSV to CSV, end to end,
+# Batch rating speed (issues 5 and 17): a NASA-air compressor log, CSV to CSV, end to end,
 # beside awk and python3-pandas computing only the constant-cp closed form over the
 # same file. docs/performance.md records the results.
 #
 #   bench/batch_compare.sh [path/to/shaftwork] [rows]      (defaults: build/shaftwork, 1000000)
+#   REPEATS=7 PANDAS=0 bench/batch_compare.sh build/shaftwork 400000
 #
 # The log (bench/compressor_log.awk, awk, fixed seed): inlet 15-30 degC at -20..+20 mbar gauge,
 # outlet 6-8 barg, an outlet temperature from an isentropic efficiency of 0.78-0.84,
@@ -11,10 +12,15 @@
 # entropy solve, polytropic efficiency from s°(T)) and writes 13 result columns; awk
 # and pandas compute the constant-cp isentropic efficiency and power only:
 #   eta = T1 ((p2/p1)^((k-1)/k) - 1) / (T2 - T1),  P = m cp (T2 - T1) / eta_m.
-# Each tool reads the file and writes its CSV to a file in the same directory; the
-# time is wall-clock from start to exit, best of `repeats` runs.
+# Each tool reads the file and writes its CSV to a file in the same directory. The runs
+# are paired: each round runs every tool once, in turn, so that a busy machine slows them
+# alike; the figures are medians over `REPEATS` rounds (default 5) of the wall time and
+# the CPU time (user + system) from /usr/bin/time, whose peak resident memory is shown too.
+# Tools: shaftwork with all cores, with --jobs 1, with --columns efficiency.isentropic,power;
+# awk; pandas unless PANDAS=0.
 source "$(dirname "$0")/batch_log.bash"
-repeats=${REPEATS:-3}
+repeats=${REPEATS:-5}
+pandas=${PANDAS:-1}
 
 cat >"$work/closed_form.awk" <<'AWK'
 # Constant-cp air (k = 1.4, cp = 1005 J/(kg K)), barometer 99.1 kPa, eta_m 0.975.
@@ -42,38 +48,51 @@ df["power [kW]"] = m * 1005.0 * (T2 - T1) / 0.975 / 1000.0
 df.to_csv(sys.argv[2], index=False)
 PY
 
-# best_of COMMAND...: the shortest wall time of `repeats` runs, in seconds.
-best_of() {
-  local best=""
-  for _ in $(seq "$repeats"); do
-    local start end
-    start=$(date +%s.%N)
-    "$@" >/dev/null
-    end=$(date +%s.%N)
-    best=$(awk -v s="$start" -v e="$end" -v b="$best" 'BEGIN { t = e - s; print (b == "" || t < b) ? t : b }')
-  done
-  echo "$best"
-}
+# Each tool: a name and its command line.
+names=("shaftwork (NASA air, all cores)" "shaftwork --jobs 1" "shaftwork --columns efficiency.isentropic,power"
+       "awk (constant-cp closed form only)")
+commands=("'$bin' rate '$work/log.csv' --case '$work/template.json' --quiet -o '$work/shaftwork.csv'"
+          "'$bin' rate '$work/log.csv' --case '$work/template.json' --quiet --jobs 1 -o '$work/shaftwork1.csv'"
+          "'$bin' rate '$work/log.csv' --case '$work/template.json' --quiet --columns efficiency.isentropic,power -o '$work/narrow.csv'"
+          "awk -f '$work/closed_form.awk' '$work/log.csv' >'$work/awk.csv'")
+if [ "$pandas" = 1 ]; then
+  names+=("pandas+numpy (constant-cp closed form only)")
+  commands+=("/usr/bin/python3 '$work/closed_form.py' '$work/log.csv' '$work/pandas.csv'")
+fi
 
-t_shaftwork=$(best_of "$bin" rate "$work/log.csv" --case "$work/template.json" --quiet -o "$work/shaftwork.csv")
-t_shaftwork_1=$(best_of "$bin" rate "$work/log.csv" --case "$work/template.json" --quiet --jobs 1 -o "$work/shaftwork1.csv")
-t_awk=$(best_of sh -c "awk -f '$work/closed_form.awk' '$work/log.csv' >'$work/awk.csv'")
-t_pandas=$(best_of /usr/bin/python3 "$work/closed_form.py" "$work/log.csv" "$work/pandas.csv")
+# One line per run in $work/times: tool index, wall s, CPU s, peak RSS kB.
+: >"$work/times"
+for _ in $(seq "$repeats"); do
+  for i in "${!commands[@]}"; do
+    /usr/bin/time -f "$i %e %U %S %M" -a -o "$work/times" sh -c "${commands[$i]}"
+  done
+done
 
 # Every row rated, and the same output whatever the number of threads.
 ok_rows=$(grep -c ',ok,' "$work/shaftwork.csv" || true)
 cmp -s "$work/shaftwork.csv" "$work/shaftwork1.csv" || { echo "jobs 1 and default differ" >&2; exit 1; }
 
-echo "machine:  $(lscpu | sed -n 's/^Model name: *//p' | head -n 1), $(nproc) cores"
+echo "machine:  $(lscpu | sed -n 's/^Model name: *//p' | head -n 1), $(nproc) cores, load $(cut -d' ' -f1-3 /proc/loadavg)"
 echo "compiler: $(c++ --version | head -n 1)"
 echo "awk:      $(readlink -f "$(command -v awk)")"
-echo "pandas:   $(/usr/bin/python3 -c 'import pandas, numpy; print("pandas", pandas.__version__, "numpy", numpy.__version__)')"
-echo "rows:     $rows ($ok_rows rated by shaftwork), best of $repeats runs"
+if [ "$pandas" = 1 ]; then
+  echo "pandas:   $(/usr/bin/python3 -c 'import pandas, numpy; print("pandas", pandas.__version__, "numpy", numpy.__version__)')"
+fi
+echo "rows:     $rows ($ok_rows rated by shaftwork), medians of $repeats paired rounds"
 echo
-awk -v rows="$rows" -v s="$t_shaftwork" -v s1="$t_shaftwork_1" -v a="$t_awk" -v p="$t_pandas" 'BEGIN {
-  printf "%-44s %8s %14s %10s\n", "tool", "seconds", "rows/s", "shaftwork x"
-  printf "%-44s %8.3f %14.0f %10s\n", "shaftwork (NASA air, all cores)", s, rows / s, "1.00"
-  printf "%-44s %8.3f %14.0f %10.2f\n", "shaftwork --jobs 1", s1, rows / s1, s1 / s
-  printf "%-44s %8.3f %14.0f %10.2f\n", "awk (constant-cp closed form only)", a, rows / a, a / s
-  printf "%-44s %8.3f %14.0f %10.2f\n", "pandas+numpy (constant-cp closed form only)", p, rows / p, p / s
-}'
+# Medians per tool, and each tool's wall and CPU time over shaftwork's (all cores); the
+# awk line's ratios are shaftwork's lead.
+for i in "${!names[@]}"; do
+  awk -v i="$i" '$1 == i { print $2, $3 + $4, $5 }' "$work/times" >"$work/t$i"
+done
+median() { sort -g | awk '{ v[NR] = $1 } END { print (NR % 2) ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2 }'; }
+printf "%-50s %8s %8s %12s %8s %10s %10s\n" "tool" "wall s" "CPU s" "rows/s" "RSS MB" "awk/this" "awk CPU/"
+awk_wall=$(cut -d' ' -f1 "$work/t3" | median)
+awk_cpu=$(cut -d' ' -f2 "$work/t3" | median)
+for i in "${!names[@]}"; do
+  wall=$(cut -d' ' -f1 "$work/t$i" | median)
+  cpu=$(cut -d' ' -f2 "$work/t$i" | median)
+  rss=$(cut -d' ' -f3 "$work/t$i" | median)
+  awk -v n="${names[$i]}" -v w="$wall" -v c="$cpu" -v m="$rss" -v rows="$rows" -v aw="$awk_wall" -v ac="$awk_cpu" \
+    'BEGIN { printf "%-50s %8.3f %8.3f %12.0f %8.1f %10.2f %10.2f\n", n, w, c, rows / w, m / 1024, aw / w, ac / c }'
+done

@@ -308,6 +308,8 @@ void plan_outputs(Plan& plan, const BatchTemplate& templ, const BatchOptions& op
   const std::vector<const ResultKey*> keys =
       options.columns.empty() ? default_outputs(plan, templ) : chosen_outputs(options.columns);
   plan.solved_for_column = options.columns.empty();
+  // jsonl writes every result of a row, whatever the columns.
+  if (options.format != BatchFormat::jsonl) plan.rating = rating_options_for(keys);
   std::string& line = plan.output_header;
   for (std::size_t i = 0; i < plan.header.size(); ++i) {
     if (i) line += ',';

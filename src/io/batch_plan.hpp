@@ -50,6 +50,7 @@ struct Plan {
   std::optional<std::size_t> time_index;  // the column BatchPoint::time is read from
   bool has_barometer_column = false;
   std::vector<OutputColumn> outputs;
+  machines::RatingOptions rating;    // what the rows' ratings compute: what the outputs need
   std::vector<UncertaintyColumn> uncertainty_columns;
   // The batch states uncertainties (columns or template): "uncertainty.<key> [unit]"
   // columns follow the result columns.

@@ -218,7 +218,7 @@ bool RowRater::rate_record(OutputBuffer& out, RowCounts& counts) {
   rated_uncertainty_ = false;
   if (error_.empty()) {
     try {
-      rating_ = machines::rate(input_);
+      rating_ = machines::rate(input_, plan_.rating);
       rated = true;
     } catch (const Error& e) {
       error_ = fmt::format("line {}: {}", line, e.what());

@@ -1,5 +1,6 @@
 #include "shaftwork/io/result_keys.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <string>
 
@@ -93,21 +94,22 @@ std::vector<ResultKey> make_rows() {
        [](R r) -> O { return r.efficiency_isentropic; }, Q::efficiency, "isentropic efficiency", dec(4),
        S::efficiency, batch},
       {key_of(Input::efficiency_polytropic), Dimension::fraction,
-       [](R r) -> O { return r.efficiency_polytropic; }, Q::efficiency, "polytropic efficiency", dec(4),
-       S::efficiency, batch, Applies::always, false},
+       [](R r) -> O { return r.polytropic ? O(r.efficiency_polytropic) : std::nullopt; }, Q::efficiency,
+       "polytropic efficiency", dec(4), S::efficiency, batch, Applies::always, false, Needs::polytropic},
       {"efficiency.polytropic_schultz", Dimension::fraction,
        [](R r) -> O { return r.schultz ? O(r.schultz->polytropic_efficiency) : std::nullopt; }, std::nullopt,
-       "Schultz polytropic efficiency", dec(4), S::derived, batch, Applies::real_gas},
+       "Schultz polytropic efficiency", dec(4), S::derived, batch, Applies::real_gas, true, Needs::polytropic},
       {"head.isentropic", Dimension::specific_energy, [](R r) -> O { return r.head_isentropic; }, std::nullopt,
        "isentropic head", sig(5), S::derived, batch, Applies::always, false},
-      {"head.polytropic", Dimension::specific_energy, [](R r) -> O { return r.head_polytropic; }, std::nullopt,
-       "polytropic head", sig(5), S::derived, batch, Applies::always, false},
+      {"head.polytropic", Dimension::specific_energy,
+       [](R r) -> O { return r.polytropic ? O(r.head_polytropic) : std::nullopt; }, std::nullopt, "polytropic head",
+       sig(5), S::derived, batch, Applies::always, false, Needs::polytropic},
       {"head.polytropic_schultz", Dimension::specific_energy,
        [](R r) -> O { return r.schultz ? O(r.schultz->polytropic_head) : std::nullopt; }, std::nullopt,
-       "Schultz polytropic head", sig(5), S::derived, batch, Applies::real_gas},
+       "Schultz polytropic head", sig(5), S::derived, batch, Applies::real_gas, true, Needs::polytropic},
       {"schultz_factor", Dimension::fraction,
        [](R r) -> O { return r.schultz ? O(r.schultz->schultz_factor) : std::nullopt; }, std::nullopt,
-       "Schultz factor f", sig(5), S::derived, batch, Applies::real_gas},
+       "Schultz factor f", sig(5), S::derived, batch, Applies::real_gas, true, Needs::polytropic},
       {"specific_work", Dimension::specific_energy, [](R r) -> O { return r.specific_work; }, std::nullopt,
        "specific work", sig(5), S::derived, batch, Applies::always, false},
       {"pressure_ratio", Dimension::fraction, [](R r) -> O { return r.pressure_ratio; }, std::nullopt,
@@ -166,6 +168,13 @@ ResultNumbers result_numbers(const Rating& rating) {
     numbers.push_back(v && std::isfinite(*v) ? rounded_for_output(*v) : v);
   }
   return numbers;
+}
+
+machines::RatingOptions rating_options_for(const std::vector<const ResultKey*>& keys) {
+  machines::RatingOptions options;
+  options.polytropic =
+      std::any_of(keys.begin(), keys.end(), [](const ResultKey* k) { return k->needs == Needs::polytropic; });
+  return options;
 }
 
 const ResultKey* find_result_key(std::string_view key) {

@@ -164,7 +164,8 @@ double at_most_one(double eta) { return eta > 1 && eta <= 1 + 1e-9 ? 1.0 : eta; 
 
 // Both efficiencies and the isentropic outlet; a given efficiency that fixed the outlet is
 // reported as given.
-void rate_efficiencies(const Problem& problem, const Endpoints& e, bool efficiency_used, Rating& r) {
+void rate_efficiencies(const Problem& problem, const Endpoints& e, bool efficiency_used, const RatingOptions& options,
+                       Rating& r) {
   const State s2 = e.isentropic ? *e.isentropic : problem.fluid.from_ps(e.outlet.pressure, e.inlet.entropy);
   const double dh = e.outlet.enthalpy - e.inlet.enthalpy;
   const double dhs = s2.enthalpy - e.inlet.enthalpy;
@@ -173,11 +174,13 @@ void rate_efficiencies(const Problem& problem, const Endpoints& e, bool efficien
   if (!(eta_s > 0 && eta_s <= 1 + 1e-9)) refuse_impossible(problem, e, eta_s, s2);
   r.outlet_isentropic = s2;
   r.efficiency_isentropic = at_most_one(eta_s);
+  r.head_isentropic = std::fabs(dhs);
+  r.specific_work = std::fabs(dh);
+  r.polytropic = options.polytropic || problem.in.efficiency_polytropic.has_value();
+  if (!r.polytropic) return;
   r.efficiency_polytropic = efficiency_used && problem.in.efficiency_polytropic
                                 ? *problem.in.efficiency_polytropic
                                 : at_most_one(polytropic_efficiency(problem.fluid, e.inlet, e.outlet, eta_s));
-  r.head_isentropic = std::fabs(dhs);
-  r.specific_work = std::fabs(dh);
   r.head_polytropic = problem.compression ? r.efficiency_polytropic * r.specific_work
                                           : r.specific_work / r.efficiency_polytropic;
   if (problem.fluid.fluid_kind() == fluids::FluidKind::real_gas) {
@@ -262,7 +265,8 @@ std::string ideal_gas_warning(const Problem& problem, const Rating& r) {
                        problem.show(Q::inlet_temperature, s->temperature), 100 * std::fabs(1 - *z));
   }
   const double p_max = std::max(r.inlet.pressure, r.outlet.pressure);
-  if (!problem.fluid.estimated_compressibility(p_max, r.inlet.temperature) && p_max > kIdealGasWarningPressure) {
+  // The pressure first: below it the estimate (a cubic's roots) is not needed.
+  if (p_max > kIdealGasWarningPressure && !problem.fluid.estimated_compressibility(p_max, r.inlet.temperature)) {
     return fmt::format("the {} model is an ideal gas, and this machine runs up to {}: real-gas effects are not "
                        "modelled and can move efficiency and power by several percent",
                        problem.fluid.model_name(), problem.show(Q::outlet_pressure, p_max));
@@ -326,7 +330,7 @@ void refuse_non_finite(const Rating& r) {
 
 }  // namespace
 
-Rating rate(const RatingInput& input) {
+Rating rate(const RatingInput& input, const RatingOptions& options) {
   const Problem problem(input);
   SolvedFor unknown;
   for (Quantity q : kAllQuantities) {
@@ -349,7 +353,7 @@ Rating rate(const RatingInput& input) {
   const bool efficiency_used = problem.known(Q::efficiency) &&
                                (unknown.contains(Q::inlet_pressure) || unknown.contains(Q::inlet_temperature) ||
                                 unknown.contains(Q::outlet_pressure) || unknown.contains(Q::outlet_temperature));
-  rate_efficiencies(problem, e, efficiency_used, r);
+  rate_efficiencies(problem, e, efficiency_used, options, r);
   size_machine(problem, e, r);
   if (!r.mass_flow) {  // unsized: neither flow nor power was solved
     r.solved_for.remove(Q::flow);

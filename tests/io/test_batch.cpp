@@ -388,6 +388,74 @@ TEST_CASE("--columns chooses the result columns, and refuses a key that is no re
                                       "inlet.pressure, inlet.temperature,"));
 }
 
+namespace {
+
+// The cells of one csv line as written (a quoted cell keeps its quotes), without its CR.
+std::vector<std::string> cells_of(std::string line) {
+  if (!line.empty() && line.back() == '\r') line.pop_back();
+  std::vector<std::string> cells(1);
+  bool quoted = false;
+  for (char c : line) {
+    if (c == '"') quoted = !quoted;
+    if (c == ',' && !quoted) {
+      cells.emplace_back();
+    } else {
+      cells.back() += c;
+    }
+  }
+  return cells;
+}
+
+// The cells of the column `header` in every line of a csv output, the header included.
+std::vector<std::string> column_of(const std::string& output, const std::string& header) {
+  const auto lines = lines_of(output);
+  const auto names = cells_of(lines.at(0));
+  const auto at = std::find(names.begin(), names.end(), header);
+  REQUIRE(at != names.end());
+  const auto i = static_cast<std::size_t>(at - names.begin());
+  std::vector<std::string> column;
+  for (const std::string& line : lines) column.push_back(cells_of(line).at(i));
+  return column;
+}
+
+}  // namespace
+
+TEST_CASE("--columns without a polytropic key skips the polytropic path and writes the same numbers") {
+  // Rows from a plant-air log (invented), one of them refused by the rating.
+  const std::string csv =
+      "id,inlet.pressure [barg],inlet.temperature [degC],outlet.pressure [barg],outlet.temperature [degC],"
+      "mass_flow [t/h]\n"
+      "A-1,0.0145,17.53,6.789,310.83,5.628\n"
+      "A-2,-0.0197,26.91,6.111,318.81,5.920\n"
+      "A-3,0.0012,21.40,7.402,20.00,5.310\n"
+      "A-4,-0.0050,29.95,7.998,335.07,5.004\n";
+  const json templ = json::parse(R"({"machine": "compressor", "fluid": "air",
+    "site": {"barometric_pressure": "99.1 kPa"}, "mechanical_efficiency": 0.975})");
+  io::FluidFactory fluids;
+  const io::BatchTemplate t = io::read_batch_template(templ, "template.json", fluids);
+  const auto run = [&](std::vector<std::string> columns) {
+    io::BatchOptions options;
+    options.columns = std::move(columns);
+    StringSource source(csv, 997);
+    StringSink sink;
+    io::rate_batch(source, "points.csv", t, sink, options);
+    return sink.text;
+  };
+  const std::string full = run({});
+  const std::string narrow = run({"efficiency.isentropic", "power"});
+  CHECK(lines_of(narrow).size() == 5);
+  for (const char* header : {"status", "error", "efficiency.isentropic", "power [kW]", "warnings"}) {
+    CAPTURE(header);
+    CHECK(column_of(narrow, header) == column_of(full, header));
+  }
+  CHECK(column_of(narrow, "status") == std::vector<std::string>{"status", "ok", "ok", "error", "ok"});
+  // With a polytropic key among the columns, the polytropic results are computed and the same.
+  const std::string with_polytropic = run({"efficiency.polytropic", "head.polytropic"});
+  CHECK(column_of(with_polytropic, "efficiency.polytropic") == column_of(full, "efficiency.polytropic"));
+  CHECK(column_of(with_polytropic, "head.polytropic [kJ/kg]") == column_of(full, "head.polytropic [kJ/kg]"));
+  CHECK(column_of(full, "efficiency.polytropic")[1].rfind("0.82", 0) == 0);
+}
+
 TEST_CASE("a template holds one readable case") {
   io::FluidFactory fluids;
   const json two = json::parse(R"({"cases": [{"machine": "pump", "fluid": "water"},

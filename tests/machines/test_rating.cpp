@@ -70,6 +70,27 @@ TEST_CASE("compressor on a constant-cp gas follows the closed-form ideal-gas rel
   CHECK(rating.solved_for == std::vector<std::string>{"outlet.temperature", "power"});
 }
 
+TEST_CASE("RatingOptions without the polytropic path: the same other results, no polytropic ones") {
+  const auto full = machines::rate(compressor_point());
+  machines::RatingOptions options;
+  options.polytropic = false;
+  const auto narrow = machines::rate(compressor_point(), options);
+  CHECK(full.polytropic);
+  CHECK_FALSE(narrow.polytropic);
+  CHECK(narrow.efficiency_isentropic == full.efficiency_isentropic);
+  CHECK(narrow.outlet.temperature == full.outlet.temperature);
+  CHECK(*narrow.power == *full.power);
+  CHECK(narrow.head_isentropic == full.head_isentropic);
+  CHECK(narrow.specific_work == full.specific_work);
+  // A given polytropic efficiency is used whatever the options, and reported.
+  RatingInput in = compressor_point();
+  machines::set_efficiency(in, EfficiencyBasis::polytropic, 0.85);
+  const auto given = machines::rate(in, options);
+  CHECK(given.polytropic);
+  CHECK(given.efficiency_polytropic == 0.85);
+  CHECK(given.head_polytropic == Approx(0.85 * given.specific_work).epsilon(1e-15));
+}
+
 TEST_CASE("turbine on a constant-cp gas follows the closed-form relations, polytropic below isentropic") {
   const double k = 1.4, cp = 1005.0, T1 = 900.0, eta_p = 0.88;
   RatingInput in;

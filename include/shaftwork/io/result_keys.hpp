@@ -45,6 +45,13 @@ enum class Applies {
   real_gas,   // real-gas models: compressibility, the Schultz method
 };
 
+// What a row needs computed beyond the end states, the isentropic efficiency and the size
+// (machines::RatingOptions): a batch whose columns need no polytropic row skips that path.
+enum class Needs {
+  states,
+  polytropic,  // the polytropic path (and the Schultz method of real gases)
+};
+
 struct ResultKey {
   std::string_view key;
   units::Dimension dimension;
@@ -59,6 +66,7 @@ struct ResultKey {
   // the pump efficiency; polytropic values, heads in energy per mass, the pressure ratio and
   // the isentropic outlet are a gas machine's (JSON and CSV keep them for every machine).
   bool pump_table = true;
+  Needs needs = Needs::states;
 };
 
 // Every row, in output order (the JSON objects follow it).
@@ -71,6 +79,9 @@ std::size_t row_of(const ResultKey& k);
 // as it is (result_json turns the case into an error naming it).
 using ResultNumbers = std::vector<std::optional<double>>;
 ResultNumbers result_numbers(const machines::Rating& rating);
+// The options of a rating whose results are read only through `keys`: the polytropic path
+// only when one of them needs it.
+machines::RatingOptions rating_options_for(const std::vector<const ResultKey*>& keys);
 // The row of a dotted key, or nullptr.
 const ResultKey* find_result_key(std::string_view key);
 // Every key, comma-separated, for messages.

@@ -113,10 +113,22 @@ struct Rating {
   std::optional<PowerBalance> power_balance;
   std::optional<EfficiencyCheck> efficiency_check;
   std::vector<std::string> warnings;
+  // False when RatingOptions::polytropic skipped the polytropic path: efficiency_polytropic,
+  // head_polytropic and schultz then hold nothing to report.
+  bool polytropic = true;
+};
+
+// What a rating computes beyond the end states, the isentropic efficiency and the size.
+// A caller that reports no polytropic result (a batch whose --columns name none) sets
+// polytropic to false and the path is skipped, with the refusals that only it raises
+// (an outlet below the isentrope, a pressure change lost in the entropies' rounding). A
+// given polytropic efficiency is always used and checked.
+struct RatingOptions {
+  bool polytropic = true;  // efficiency.polytropic, head.polytropic, the Schultz method
 };
 
 // Rates one machine. Throws shaftwork::Error with a message for the user when the set of
 // knowns is incomplete, contradictory or has no solution.
-Rating rate(const RatingInput& input);
+Rating rate(const RatingInput& input, const RatingOptions& options = {});
 
 }  // namespace shaftwork::machines
