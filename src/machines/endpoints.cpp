@@ -80,6 +80,14 @@ State outlet_at(const Problem& problem, double p2, double h2) {
   return problem.fluid.from_ph(p2, h2);
 }
 
+// The outlet at p2 that the efficiency's target (the outlet temperature, or the power
+// balance without it) gives from e's inlet: the end of the searches by efficiency.
+Endpoints with_target_outlet(const Problem& problem, Endpoints e, double p2) {
+  e.outlet = outlet_at(problem, p2, outlet_target(problem, e.inlet, p2));
+  e.balance_used = !problem.known(Quantity::outlet_temperature);
+  return e;
+}
+
 }  // namespace
 
 // ---- The patterns --------------------------------------------------------------------
@@ -132,9 +140,7 @@ Endpoints outlet_pressure_by_efficiency(const Problem& problem) {
     return problem.outlet_enthalpy_by_efficiency(e.inlet, p) - outlet_target(problem, e.inlet, p);
   });
   const double p2 = keep_root(root, q, search_start(problem, q, e.inlet.pressure), e);
-  e.outlet = outlet_at(problem, p2, outlet_target(problem, e.inlet, p2));
-  e.balance_used = !problem.known(Quantity::outlet_temperature);
-  return e;
+  return with_target_outlet(problem, e, p2);
 }
 
 Endpoints inlet_pressure_by_efficiency(const Problem& problem) {
@@ -146,9 +152,7 @@ Endpoints inlet_pressure_by_efficiency(const Problem& problem) {
     return problem.outlet_enthalpy_by_efficiency(in, p2) - outlet_target(problem, in, p2);
   });
   e.inlet = problem.inlet_at(keep_root(root, q, search_start(problem, q, p2), e));
-  e.outlet = outlet_at(problem, p2, outlet_target(problem, e.inlet, p2));
-  e.balance_used = !problem.known(Quantity::outlet_temperature);
-  return e;
+  return with_target_outlet(problem, e, p2);
 }
 
 Endpoints inlet_temperature_by_efficiency(const Problem& problem) {
@@ -161,9 +165,7 @@ Endpoints inlet_temperature_by_efficiency(const Problem& problem) {
     return problem.outlet_enthalpy_by_efficiency(in, p2) - outlet_target(problem, in, p2);
   });
   e.inlet = problem.inlet_at(p1, keep_root(root, q, search_start(problem, q, p1), e));
-  e.outlet = outlet_at(problem, p2, outlet_target(problem, e.inlet, p2));
-  e.balance_used = !problem.known(Quantity::outlet_temperature);
-  return e;
+  return with_target_outlet(problem, e, p2);
 }
 
 Endpoints outlet_pressure_with_inlet_by_balance(const Problem& problem) {
