@@ -276,18 +276,17 @@ std::string ideal_gas_warning(const Problem& problem, const Rating& r) {
 
 void add_warnings(const Problem& problem, const Endpoints& e, Rating& r) {
   if (std::string warning = ideal_gas_warning(problem, r); !warning.empty()) r.warnings.push_back(std::move(warning));
-  if (const auto dew = problem.fluid.dew_point(r.inlet.pressure); dew && r.inlet.temperature < *dew) {
-    r.warnings.push_back(fmt::format("the inlet temperature {} lies below the dew point {} of the gas's water vapour: "
-                                     "the stated moisture cannot be all vapour there; check the humidity",
-                                     problem.show(Q::inlet_temperature, r.inlet.temperature),
-                                     problem.show(Q::inlet_temperature, *dew)));
-  }
-  if (const auto dew = problem.fluid.dew_point(r.outlet.pressure); dew && r.outlet.temperature < *dew) {
-    r.warnings.push_back(fmt::format("the outlet temperature {} lies below the dew point {} of the gas's water vapour: "
-                                     "water would condense, which the model does not describe",
-                                     problem.show(Q::outlet_temperature, r.outlet.temperature),
-                                     problem.show(Q::outlet_temperature, *dew)));
-  }
+  // Below the dew point of the gas's water vapour (humid air): the inlet's stated moisture
+  // cannot all be vapour; at the outlet water would condense, which the model leaves out.
+  const auto dew_warning = [&](const fluids::State& st, Q q, std::string_view end, std::string_view consequence) {
+    const auto dew = problem.fluid.dew_point(st.pressure);
+    if (!dew || st.temperature >= *dew) return;
+    r.warnings.push_back(fmt::format("the {} temperature {} lies below the dew point {} of the gas's water vapour: {}",
+                                     end, problem.show(q, st.temperature), problem.show(q, *dew), consequence));
+  };
+  dew_warning(r.inlet, Q::inlet_temperature, "inlet",
+              "the stated moisture cannot be all vapour there; check the humidity");
+  dew_warning(r.outlet, Q::outlet_temperature, "outlet", "water would condense, which the model does not describe");
   if (r.power_balance && std::fabs(r.power_balance->difference_percent) > kPowerBalanceWarningPercent) {
     r.warnings.push_back(fmt::format("the shaft power from the fluid side and the given power differ by {:+.1f} %: "
                                      "check the flow, the temperatures and the power reading",
