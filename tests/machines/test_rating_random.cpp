@@ -44,6 +44,8 @@
 #include "shaftwork/fluids/nasa_polynomial.hpp"
 #include "shaftwork/machines/rating.hpp"
 
+#include "machines/known_pairs.hpp"
+
 using namespace shaftwork;
 using machines::EfficiencyBasis;
 using machines::MachineKind;
@@ -253,33 +255,17 @@ const std::array<Quantity, 7> kAll = {Quantity::inlet_pressure,     Quantity::in
                                       Quantity::efficiency};
 
 bool unsolvable(const RandomCase& c, Quantity a, Quantity b) {
-  auto is = [&](Quantity q) { return a == q || b == q; };
   // An incompressible liquid: flow, power and efficiency fix only T2 - T1.
-  const bool level_free = c.base.fluid->is_incompressible() && is(Quantity::inlet_temperature) &&
-                          is(Quantity::outlet_temperature);
-  return level_free || (is(Quantity::inlet_pressure) && is(Quantity::outlet_pressure)) ||
-         (is(Quantity::inlet_pressure) && is(Quantity::efficiency)) ||
-         (is(Quantity::outlet_pressure) && is(Quantity::efficiency));
+  const bool level_free = c.base.fluid->is_incompressible() &&
+                          (a == Quantity::inlet_temperature || b == Quantity::inlet_temperature) &&
+                          (a == Quantity::outlet_temperature || b == Quantity::outlet_temperature);
+  return level_free || test::pressure_pair(a, b);
 }
 
 RatingInput without(const RandomCase& c, Quantity a, Quantity b) {
   const Point& f = c.point;
-  RatingInput in = c.base;
-  auto keep = [&](Quantity q) { return a != q && b != q; };
-  if (keep(Quantity::inlet_pressure)) in.inlet_pressure = f.p1;
-  if (keep(Quantity::inlet_temperature)) in.inlet_temperature = f.T1;
-  if (keep(Quantity::outlet_pressure)) in.outlet_pressure = f.p2;
-  if (keep(Quantity::outlet_temperature)) {
-    if (f.wet_outlet) {
-      in.outlet_enthalpy = f.h2;
-    } else {
-      in.outlet_temperature = f.T2;
-    }
-  }
-  if (keep(Quantity::flow)) in.mass_flow = f.m;
-  if (keep(Quantity::power)) in.power = f.P;
-  if (keep(Quantity::efficiency)) machines::set_efficiency(in, c.basis, f.eta);
-  return in;
+  const test::SevenValues v{f.p1, f.T1, f.p2, f.T2, f.h2, f.m, f.P, f.eta, f.wet_outlet, c.basis};
+  return test::without_pair(c.base, v, a, b);
 }
 
 double relative(double x, double reference) { return std::fabs(x - reference) / std::fabs(reference); }
