@@ -164,6 +164,8 @@ State CubicGas::Impl::state(const CubicPoint& pt) const {
   st.cp = cp / M;
   st.cv = cv / M;
   st.density = M / pt.r.v;
+  // alpha_v = (1/v)(dv/dT)_p = -(dp/dT)_v / (v (dp/dv)_T), from the same equation.
+  st.expansivity = -pt.r.dp_dt / (pt.r.v * pt.r.dp_dv);
   st.molar_mass = M;
   st.compressibility = pt.Z;
   return st;

@@ -166,6 +166,9 @@ TEST_CASE("identities: cp = dh/dT, v = dg/dp, w^2 = (dp/drho)_s, round trips") {
     // X = (T/v)(dv/dT)_p - 1 against the model's volumes.
     const double dv_dt = (1 / gas.from_pt(p, T + dT).density - 1 / gas.from_pt(p, T - dT).density) / (2 * dT);
     CHECK(xy.x == Approx(T * st.density * dv_dt - 1).margin(1e-6));
+    // The isobaric expansivity the polytropic path uses, against the same volumes.
+    CHECK(st.expansivity == Approx(st.density * dv_dt).epsilon(1e-6));
+    CHECK(st.expansivity * T == Approx(1 + xy.x).epsilon(1e-9));
   }
 }
 
