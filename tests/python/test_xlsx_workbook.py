@@ -87,6 +87,42 @@ def check_guarantee(cells, result, key, unit):
         failures.append(f"{cells['id']}: {key} {cell!r} against JSON {expected!r}")
     return 1
 
+
+def check_batch(log, template, tmp, judged):
+    """A batch's workbook against its CSV, cell for cell; returns the numbers compared."""
+    batch = [log, "--case", template, "--quiet"]
+    book = os.path.join(tmp, "batch.xlsx")
+    subprocess.run([binary, "rate", *batch, "--format", "xlsx", "-o", book], stderr=subprocess.DEVNULL)
+    text = subprocess.run([binary, "rate", *batch], capture_output=True, text=True).stdout
+    records = list(csv.reader(io.StringIO(text)))
+    rows = list(openpyxl.load_workbook(book, read_only=True)["results"].iter_rows(values_only=True))
+    header = [h.rsplit(" [", 1) for h in records[0]]
+    if [h[0] for h in header] != list(rows[0]):
+        failures.append(f"batch keys {rows[0]} against the csv header {records[0]}")
+    if [h[1][:-1] if len(h) == 2 else None for h in header] != [u or None for u in rows[1]]:
+        failures.append(f"batch units {rows[1]}")
+    if len(rows) - 2 != len(records) - 1:
+        failures.append(f"batch: {len(rows) - 2} rows in the workbook, {len(records) - 1} in the csv")
+    numbers = 0
+    must_be_numbers = 0
+    for record, row in zip(records[1:], rows[2:]):
+        for key, value, cell in zip(rows[0], record, row):
+            if isinstance(cell, (int, float)):
+                numbers += 1
+                if float(value) != cell:
+                    failures.append(f"batch {key}: {cell} against the csv's {value}")
+            elif (cell or "") != value:
+                failures.append(f"batch {key}: {cell!r} against the csv's {value!r}")
+            if judged and value and (key.startswith("uncertainty.") or key.endswith((".converted", ".deviation_percent"))):
+                must_be_numbers += 1
+                if not isinstance(cell, (int, float)):
+                    failures.append(f"batch {key}: {cell!r} is text, not a number")
+    if numbers < 10 * (len(records) - 1):
+        failures.append(f"batch: only {numbers} numbers in {len(records) - 1} rows")
+    if judged and must_be_numbers < 10 * (len(records) - 1):
+        failures.append(f"batch: only {must_be_numbers} uncertainty and guarantee numbers in {len(records) - 1} rows")
+    return numbers
+
 with tempfile.TemporaryDirectory() as tmp:
     bad = os.path.join(tmp, "with-a-failure.json")
     with open(bad, "w") as f:
@@ -180,32 +216,27 @@ with tempfile.TemporaryDirectory() as tmp:
     if line_tests != tests:
         failures.append(f"jsonl: {len(line_tests)} test lines, unlike JSON's {len(tests)} tests")
 
-    # A batch: the workbook holds the batch's CSV cell for cell, numbers as numbers.
-    batch = ["examples/compressor-week-log.csv", "--case", "examples/compressor-week-log.template.json", "--quiet"]
-    book = os.path.join(tmp, "batch.xlsx")
-    subprocess.run([binary, "rate", *batch, "--format", "xlsx", "-o", book], stderr=subprocess.DEVNULL)
-    text = subprocess.run([binary, "rate", *batch], capture_output=True, text=True).stdout
-    records = list(csv.reader(io.StringIO(text)))
-    rows = list(openpyxl.load_workbook(book, read_only=True)["results"].iter_rows(values_only=True))
-    header = [h.rsplit(" [", 1) for h in records[0]]
-    if [h[0] for h in header] != list(rows[0]):
-        failures.append(f"batch keys {rows[0]} against the csv header {records[0]}")
-    if [h[1][:-1] if len(h) == 2 else None for h in header] != [u or None for u in rows[1]]:
-        failures.append(f"batch units {rows[1]}")
-    if len(rows) - 2 != len(records) - 1:
-        failures.append(f"batch: {len(rows) - 2} rows in the workbook, {len(records) - 1} in the csv")
-    numbers = 0
-    for record, row in zip(records[1:], rows[2:]):
-        for key, value, cell in zip(rows[0], record, row):
-            if isinstance(cell, (int, float)):
-                numbers += 1
-                checked += 1
-                if float(value) != cell:
-                    failures.append(f"batch {key}: {cell} against the csv's {value}")
-            elif (cell or "") != value:
-                failures.append(f"batch {key}: {cell!r} against the csv's {value!r}")
-    if numbers < 10 * (len(records) - 1):
-        failures.append(f"batch: only {numbers} numbers in {len(records) - 1} rows")
+    # Batches: the workbook holds the batch's CSV cell for cell, numbers as numbers. The
+    # second adds stated uncertainties and a guarantee to the week log's template (an
+    # invented guarantee near the log's first hour), over that hour's rows: its unitless
+    # uncertainty and guarantee numbers must be numbers too.
+    with open("examples/compressor-week-log.template.json") as f:
+        template = json.load(f)
+    template["uncertainty"] = {"inlet.temperature": "0.3 K", "outlet.temperature": "0.5 K", "power": "1 %"}
+    template["guarantee"] = {
+        "site": {"barometric_pressure": "99.1 kPa"}, "inlet": {"pressure": "-1.8 kPag", "temperature": "12 degC"},
+        "standard_volume_flow": "3100 Nm3/h", "outlet": {"pressure": "2.10 barg"},
+        "efficiency": {"polytropic": "75 %"}, "tolerances": {"efficiency.polytropic": {"min": "-2 %"}}}
+    judged_template = os.path.join(tmp, "judged.template.json")
+    with open(judged_template, "w") as f:
+        json.dump(template, f)
+    hour = os.path.join(tmp, "hour.csv")
+    with open("examples/compressor-week-log.csv") as f, open(hour, "w") as out:
+        out.writelines(line for _, line in zip(range(61), f))
+    for log, template_file in (("examples/compressor-week-log.csv", "examples/compressor-week-log.template.json"),
+                               (hour, judged_template)):
+        checked += check_batch(log, template_file, tmp, template_file == judged_template)
+
 
     # Without -o: refused.
     run = subprocess.run([binary, "rate", "examples/plant-air-compressor.json", "--format", "xlsx"],
