@@ -100,7 +100,7 @@ class InputTexts {
   std::optional<std::string> stdin_;
 };
 
-// The CSV's optional columns, decided before its header: the uncertainty columns when some
+// The optional columns of the CSV and the workbook, decided before their header: the uncertainty columns when some
 // case of the files states an uncertainty, the guarantee columns when some case has a
 // guarantee of its own. A file that cannot be read or parsed is left to rate_files to report.
 void choose_csv_columns(const std::vector<std::string>& files, InputTexts& texts, io::FluidFactory& fluids,
@@ -172,7 +172,7 @@ int run_rate(const RateOptions& options) {
     return kExitUnusable;
   }
   InputTexts texts;
-  if (options.format == "csv") choose_csv_columns(options.files, texts, fluids, table);
+  if (options.format == "csv" || options.format == "xlsx") choose_csv_columns(options.files, texts, fluids, table);
   io::SinkStream out(file ? static_cast<io::ByteSink&>(*file) : io::standard_output());
   const auto results = io::make_result_stream(result_format(options.format), out, table);
   ResultTee tee(*results, std::move(pictures));

@@ -17,6 +17,15 @@ std::optional<double> whole_number(const std::string& cell) {
   return value;
 }
 
+// Whether a column of the batch's CSV holds numbers: one with a unit, a result key, its
+// uncertainty, or a guarantee's converted value or deviation (the rest is text).
+bool numeric_column(std::string_view key, bool has_unit) {
+  constexpr std::string_view kUncertainty = "uncertainty.";
+  if (has_unit || find_result_key(key) != nullptr) return true;
+  if (key.starts_with(kUncertainty) && find_result_key(key.substr(kUncertainty.size())) != nullptr) return true;
+  return key.starts_with("guarantee.") && (key.ends_with(".converted") || key.ends_with(".deviation_percent"));
+}
+
 }  // namespace
 
 void CsvWorkbookSink::write(std::string_view bytes) {
@@ -62,7 +71,7 @@ void CsvWorkbookSink::end_record() {
       const bool unit = open != std::string::npos && h.back() == ']';
       const std::string key = unit ? h.substr(0, open) : h;
       book_.text(col, key, true);
-      numeric_.push_back(unit || find_result_key(key) != nullptr);
+      numeric_.push_back(numeric_column(key, unit));
       record_[col] = unit ? h.substr(open + 2, h.size() - open - 3) : std::string();
     }
     book_.end_row();

@@ -15,22 +15,22 @@ namespace {
 constexpr int kDigits = 10;  // as the result columns
 }  // namespace
 
-std::string GuaranteeColumns::header(UnitSystem system) const {
-  std::string out = ",guarantee.verdict";
+std::vector<GuaranteeColumns::Column> GuaranteeColumns::columns(UnitSystem system) const {
+  std::vector<Column> out{{"guarantee.verdict", ""}};
   for (machines::Checked q : checks) {
     const machines::CheckedSpec& spec = machines::checked_spec(q);
-    const std::string_view unit = column_unit(spec.dimension, system);
-    const std::string converted = fmt::format("guarantee.{}.converted", spec.key);
-    out += ',' + csv_field(unit.empty() ? converted : fmt::format("{} [{}]", converted, unit));
-    out += fmt::format(",guarantee.{}.deviation_percent,guarantee.{}.verdict", spec.key, spec.key);
+    out.push_back({fmt::format("guarantee.{}.converted", spec.key), std::string(column_unit(spec.dimension, system))});
+    out.push_back({fmt::format("guarantee.{}.deviation_percent", spec.key), ""});
+    out.push_back({fmt::format("guarantee.{}.verdict", spec.key), ""});
   }
-  return out + ",guarantee.error";
+  out.push_back({"guarantee.error", ""});
+  return out;
 }
 
-std::string GuaranteeColumns::cells(const machines::GuaranteeResult* g, UnitSystem system,
-                                    const std::string& error) const {
-  std::string out = ",";
-  if (g) out += machines::verdict_name(g->verdict);
+std::vector<GuaranteeColumns::Cell> GuaranteeColumns::row(const machines::GuaranteeResult* g, UnitSystem system,
+                                                          const std::string& error) const {
+  std::vector<Cell> out;
+  out.push_back({std::nullopt, g ? std::string(machines::verdict_name(g->verdict)) : std::string()});
   for (machines::Checked q : checks) {
     const machines::Check* check = nullptr;
     if (g) {
@@ -38,19 +38,42 @@ std::string GuaranteeColumns::cells(const machines::GuaranteeResult* g, UnitSyst
         if (c.quantity == q) check = &c;
       }
     }
-    out += ',';
+    Cell converted, deviation, verdict;
     const machines::CheckedSpec& spec = machines::checked_spec(q);
     if (check && check->converted && std::isfinite(*check->converted)) {
       const std::string_view unit = column_unit(spec.dimension, system);
-      append_significant(out, unit.empty() ? *check->converted : units::from_si(*check->converted, unit, spec.dimension),
-                         kDigits);
+      converted.number = unit.empty() ? *check->converted : units::from_si(*check->converted, unit, spec.dimension);
     }
-    out += ',';
-    if (check && check->deviation_percent) append_significant(out, *check->deviation_percent, kDigits);
-    out += ',';
-    if (check) out += machines::verdict_name(check->verdict);
+    if (check && check->deviation_percent) deviation.number = *check->deviation_percent;
+    if (check) verdict.text = machines::verdict_name(check->verdict);
+    out.push_back(std::move(converted));
+    out.push_back(std::move(deviation));
+    out.push_back(std::move(verdict));
   }
-  return out + ',' + csv_field(error);
+  out.push_back({std::nullopt, error});
+  return out;
+}
+
+std::string GuaranteeColumns::header(UnitSystem system) const {
+  std::string out;
+  for (const Column& c : columns(system)) {
+    out += ',' + csv_field(c.unit.empty() ? c.key : fmt::format("{} [{}]", c.key, c.unit));
+  }
+  return out;
+}
+
+std::string GuaranteeColumns::cells(const machines::GuaranteeResult* g, UnitSystem system,
+                                    const std::string& error) const {
+  std::string out;
+  for (const Cell& c : row(g, system, error)) {
+    out += ',';
+    if (c.number) {
+      append_significant(out, *c.number, kDigits);
+    } else {
+      out += csv_field(c.text);
+    }
+  }
+  return out;
 }
 
 void GuaranteeColumns::add(const GuaranteeColumns& other) {

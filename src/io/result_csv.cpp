@@ -34,16 +34,20 @@ std::string column_header(std::string_view prefix, const ResultKey& k, UnitSyste
 
 // The cells of the uncertainty columns: U of each result key in its column's unit.
 void append_uncertainty_cells(std::string& out, const CaseOutcome& o, UnitSystem system) {
-  const auto& keys = result_keys();
-  for (std::size_t k = 0; k < keys.size(); ++k) {
+  for (std::size_t k = 0; k < result_keys().size(); ++k) {
     out += ',';
-    if (!o.ok() || !o.uncertainty || k >= o.uncertainty->expanded.size()) continue;
-    const std::optional<double> u = o.uncertainty->expanded[k];
-    if (u) append_significant(out, difference_from_si(*u, column_unit(keys[k].dimension, system)), kDigits);
+    if (const std::optional<double> u = uncertainty_in_column_unit(o, k, system)) append_significant(out, *u, kDigits);
   }
 }
 
 }  // namespace
+
+std::optional<double> uncertainty_in_column_unit(const CaseOutcome& o, std::size_t key, UnitSystem system) {
+  if (!o.ok() || !o.uncertainty || key >= o.uncertainty->expanded.size()) return std::nullopt;
+  const std::optional<double> u = o.uncertainty->expanded[key];
+  if (!u) return std::nullopt;
+  return difference_from_si(*u, column_unit(result_keys()[key].dimension, system));
+}
 
 std::string csv_header(const TableOptions& options) {
   const UnitSystem system = options.system;

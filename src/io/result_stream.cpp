@@ -68,11 +68,14 @@ class JsonStream final : public ResultStream {
 class JsonLinesStream final : public ResultStream {
  public:
   explicit JsonLinesStream(std::ostream& out) : out_(out) {}
-  void add(const CaseOutcome& o) override {
-    out_ << result_json(o).dump(-1, ' ', false, nlohmann::ordered_json::error_handler_t::replace) << '\n';
-  }
+  void add(const CaseOutcome& o) override { line(result_json(o)); }
+  void add_test(const TestOutcome& t) override { line(nlohmann::ordered_json{{"test", test_json(t)}}); }
 
  private:
+  void line(const nlohmann::ordered_json& object) {
+    out_ << object.dump(-1, ' ', false, nlohmann::ordered_json::error_handler_t::replace) << '\n';
+  }
+
   std::ostream& out_;
 };
 
@@ -95,7 +98,7 @@ std::unique_ptr<ResultStream> make_result_stream(ResultFormat format, std::ostre
     case ResultFormat::json: return std::make_unique<JsonStream>(out);
     case ResultFormat::jsonl: return std::make_unique<JsonLinesStream>(out);
     case ResultFormat::csv: return std::make_unique<CsvStream>(out, options);
-    case ResultFormat::xlsx: return make_workbook_stream(out, options.system);
+    case ResultFormat::xlsx: return make_workbook_stream(out, options);
     case ResultFormat::table: break;
   }
   return std::make_unique<TableStream>(out, options);

@@ -29,6 +29,8 @@ class Workbook {
   Workbook& operator=(const Workbook&) = delete;
   ~Workbook();
 
+  // Starts another worksheet: the rows that follow go there, from its first row.
+  void add_sheet(const char* name);
   // Before a data row: throws bad_input "the workbook would pass Excel's limit of N rows:
   // ..." when the row would be one too many (the workbook is then never written).
   void begin_row();
@@ -52,8 +54,9 @@ class Workbook {
 
 // A batch's CSV output (RFC 4180, as the batch writes it) turned into a workbook as it
 // streams in: its header row split into a row of keys and a row of the units in brackets;
-// in a column with a unit or named by a result key, a cell that reads whole as a number
-// becomes a number; every other cell stays text. finish() writes the workbook.
+// in a column with a unit, named by a result key or its uncertainty, or holding a guarantee's
+// converted value or deviation, a cell that reads whole as a number becomes a number; every
+// other cell stays text. finish() writes the workbook.
 class CsvWorkbookSink final : public ByteSink {
  public:
   explicit CsvWorkbookSink(std::size_t row_limit = kWorkbookRowLimit) : book_(row_limit) {}

@@ -24,7 +24,7 @@ io::CaseOutcome failed_case(const std::string& id) {
 TEST_CASE("a workbook past its row limit is refused and not written") {
   std::ostringstream out;
   // A limit of 4 rows: the two header rows and two cases.
-  auto book = io::make_workbook_stream(out, io::UnitSystem::si, 4);
+  auto book = io::make_workbook_stream(out, io::TableOptions{}, 4);
   book->add(failed_case("a"));
   book->add(failed_case("b"));
   try {
@@ -46,7 +46,7 @@ TEST_CASE("the default limit is Excel's 1,048,576 rows") {
 
 TEST_CASE("a workbook within the limit is written whole at finish") {
   std::ostringstream out;
-  auto book = io::make_workbook_stream(out, io::UnitSystem::us, 4);
+  auto book = io::make_workbook_stream(out, io::TableOptions{io::UnitSystem::us}, 4);
   book->add(failed_case("a"));
   CHECK(out.str().empty());  // nothing before finish
   book->finish();

@@ -65,9 +65,21 @@ nlohmann::ordered_json result_json(const CaseOutcome& outcome);
 // guarantee.<key>.converted [unit], .deviation_percent and .verdict, in that order, then
 // guarantee.error.
 struct GuaranteeColumns {
+  // A column's key and its unit ("" for none); a cell's number in that unit, or its text.
+  struct Column {
+    std::string key;
+    std::string unit;
+  };
+  struct Cell {
+    std::optional<double> number;
+    std::string text;
+  };
   std::vector<machines::Checked> checks;
+  std::vector<Column> columns(UnitSystem system) const;
+  // One row's cells, column for column: empty when `g` is empty (but the error).
+  std::vector<Cell> row(const machines::GuaranteeResult* g, UnitSystem system, const std::string& error) const;
   std::string header(UnitSystem system) const;  // ",guarantee.verdict,..." (a leading comma)
-  // The cells (each with a leading comma) of one row: empty when `g` is empty.
+  // The cells (each with a leading comma) of one row, as CSV.
   std::string cells(const machines::GuaranteeResult* g, UnitSystem system, const std::string& error) const;
   // Adds the checks of `other` (the order stays kAllChecked's).
   void add(const GuaranteeColumns& other);
@@ -82,9 +94,9 @@ struct TableOptions {
   UnitSystem system = UnitSystem::si;
   bool system_forced = false;  // --units was given: it wins over the units of each case
   bool show_origin = false;    // several files: name each case's file
-  bool uncertainty_columns = false;  // csv: the "uncertainty.<key>" columns (some case states an uncertainty)
-  // csv: the guarantee columns (some case has a guarantee of its own), decided before the
-  // header as the uncertainty columns are.
+  bool uncertainty_columns = false;  // csv, xlsx: the "uncertainty.<key>" columns (some case states an uncertainty)
+  // csv, xlsx: the guarantee columns (some case has a guarantee of its own), decided before
+  // the header as the uncertainty columns are.
   std::optional<GuaranteeColumns> guarantee_columns = {};
 };
 // One case's block of the table: the given values as written, solved ones marked, then
@@ -103,6 +115,9 @@ void write_guarantee_table(std::ostream& out, const machines::GuaranteeResult& g
 // keep their places); with options.guarantee_columns, the guarantee columns follow those.
 std::string csv_header(const TableOptions& options);
 std::string csv_row(const CaseOutcome& outcome, const TableOptions& options);
+// The expanded uncertainty of result key number `key` (in result_keys()) of a rated case, in
+// its column's unit of `system` (a difference: K for degC); empty where none was propagated.
+std::optional<double> uncertainty_in_column_unit(const CaseOutcome& outcome, std::size_t key, UnitSystem system);
 
 // Results written one case at a time, so that a file of many cases needs memory for one
 // of them: the table, JSON ({"results": [...]} with two-space indentation), JSON lines
@@ -113,7 +128,8 @@ class ResultStream {
   virtual void add(const CaseOutcome& outcome) = 0;
   // A file's test, after the file's cases: the table writes its block at once; JSON writes
   // "test" beside "results" when it finishes (the one test's object, or an array of them
-  // when several files hold one); JSON lines and CSV carry the cases' own guarantees only.
+  // when several files hold one); JSON lines a line {"test": {...}}; the workbook a row per
+  // check on its sheet "tests"; CSV carries the cases' own guarantees only.
   virtual void add_test(const TestOutcome& /*test*/) {}
   // Closes the document (JSON's brackets); nothing may be added after.
   virtual void finish() {}
@@ -123,13 +139,15 @@ std::unique_ptr<ResultStream> make_result_stream(ResultFormat format, std::ostre
 
 // Excel's limit of rows in a worksheet (Microsoft, "Excel specifications and limits").
 inline constexpr std::size_t kWorkbookRowLimit = 1048576;
-// The workbook (ResultFormat::xlsx, through libxlsxwriter): one worksheet "results", a row of
-// the CSV's column keys, a row of their units (the system's, as the CSV's), then a row per
-// case with its numbers as numbers; a failed case has its status "error" and the message.
-// Rows go to a temporary file as they come (flat memory); finish() writes the zipped
-// workbook to `out`. A case beyond `row_limit` rows throws bad_input "the workbook would
-// pass Excel's limit of 1048576 rows: ..."; nothing is written to `out` then.
-std::unique_ptr<ResultStream> make_workbook_stream(std::ostream& out, UnitSystem system,
+// The workbook (ResultFormat::xlsx, through libxlsxwriter): a worksheet "results" with a row
+// of the CSV's column keys (the uncertainty and guarantee columns too, as `options` asks), a
+// row of their units (the system's, as the CSV's), then a row per case with its numbers as
+// numbers; a failed case has its status "error" and the message. Files' tests (add_test)
+// go to a second worksheet "tests", a row per check. Rows go to a temporary file as they
+// come (flat memory); finish() writes the zipped workbook to `out`. A case beyond
+// `row_limit` rows throws bad_input "the workbook would pass Excel's limit of 1048576
+// rows: ..."; nothing is written to `out` then.
+std::unique_ptr<ResultStream> make_workbook_stream(std::ostream& out, const TableOptions& options,
                                                    std::size_t row_limit = kWorkbookRowLimit);
 
 // The whole document of `outcomes` (and the files' `tests`) in one format (tests, small
