@@ -98,10 +98,16 @@ GuaranteeColumns guarantee_columns(const std::vector<const machines::GuaranteeRe
 }
 
 GuaranteeColumns guarantee_columns(const machines::Guarantee& g, machines::MachineKind machine) {
+  using machines::Checked;
+  using machines::MachineKind;
   GuaranteeColumns columns;
-  for (machines::Checked q : machines::kAllChecked) {
-    const bool exhaust = machine == machines::MachineKind::turbine && q == machines::Checked::outlet_pressure;
-    if ((g.value(q) && !exhaust) || g.tolerance[static_cast<std::size_t>(q)]) columns.checks.push_back(q);
+  // A pump's guaranteed head is checked at the tolerance cross, which checks its flow too
+  // (ISO 9906:2012, 4.4.2; src/machines/guarantee_pump.cpp).
+  const bool pump_head = machine == MachineKind::pump && (g.value(Checked::head_height) || g.value(Checked::outlet_pressure));
+  for (Checked q : machines::kAllChecked) {
+    const bool exhaust = machine == MachineKind::turbine && q == Checked::outlet_pressure;
+    const bool cross = pump_head && (q == Checked::volume_flow || q == Checked::head_height);
+    if (cross || (g.value(q) && !exhaust) || g.tolerance[static_cast<std::size_t>(q)]) columns.checks.push_back(q);
   }
   return columns;
 }

@@ -1,5 +1,6 @@
 // Guarantees in case files (io/guarantee_reader.hpp): reading to SI, the messages users
 // see, a case's own guarantee and a file's, and their JSON, table and CSV.
+#include <algorithm>
 #include <sstream>
 #include <string>
 
@@ -199,4 +200,25 @@ TEST_CASE("a case's stated uncertainties reach its guarantee's checks: inconclus
   REQUIRE(far.guarantee);
   CHECK(far.guarantee->checks.at(0).verdict == machines::Verdict::fail);
   CHECK(far.guarantee_failed());
+}
+
+TEST_CASE("csv: a pump's guaranteed head brings the flow's columns (the tolerance cross checks both)") {
+  // ISO 9906:2012, 4.4.2: the guarantee is met when the H(Q) curve passes through the cross
+  // of the flow and head tolerances about (Q_G, H_G), so the judge checks volume_flow beside
+  // head_height; a batch's columns are planned from the guarantee before any row is judged.
+  io::FluidFactory fluids;
+  std::vector<std::string> warnings;
+  const machines::Guarantee g = io::read_guarantee(
+      json::parse(R"({"speed": "1480 rpm", "volume_flow": "420 m3/h", "head": "41.0 m", "efficiency": "80 %",
+                      "power": "56 kW", "tolerances": {"grade": "1B"}})"),
+      machines::MachineKind::pump, fluids, 101325.0, warnings);
+  const io::GuaranteeColumns columns = io::guarantee_columns(g, machines::MachineKind::pump);
+  const auto has = [&](machines::Checked q) {
+    return std::find(columns.checks.begin(), columns.checks.end(), q) != columns.checks.end();
+  };
+  CHECK(has(machines::Checked::volume_flow));
+  CHECK(has(machines::Checked::head_height));
+  CHECK(has(machines::Checked::pump_efficiency));
+  CHECK(has(machines::Checked::power));
+  CHECK(columns.checks.size() == 4);
 }
