@@ -12,10 +12,12 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
+#include <cstdint>
 #include <cstdlib>
 #include <functional>
 #include <iostream>
 #include <map>
+#include <optional>
 #include <memory>
 #include <sstream>
 #include <string>
@@ -220,6 +222,29 @@ inline void report_sweep(const std::string& title, const SweepTally& tally, std:
             << " with a sought value exactly on the edge of the model's range)\n";
   CHECK(tally.refused == 0);
   CHECK(tally.round_trips + tally.other_solutions + tally.refused_at_edge == 18 * tally.points);
+}
+
+// The sweep: `count` points drawn in turn from `kinds` kinds (next(kind) gives a point rated
+// forward, or none when the model refused the draw: redrawn up to 50 times), each checked
+// against the reference and swept through its pairs, then the tally reported.
+template <class Next>
+void run_sweep(const std::string& title, long count, std::uint64_t seed, std::size_t kinds, Next next,
+               const EdgeRule& at_edge) {
+  SweepTally tally;
+  for (long n = 0; n < count; ++n) {
+    const std::size_t kind = static_cast<std::size_t>(n) % kinds;
+    std::optional<SweepPoint> pt;
+    for (int attempt = 0; attempt < 50 && !pt; ++attempt) {
+      pt = next(kind);
+      if (!pt) ++tally.skipped;
+    }
+    REQUIRE(pt.has_value());  // each kind's draws lie mostly inside the model's range
+    ++tally.points;
+    ++tally.by_kind[pt->kind];
+    check_reference(*pt, tally);
+    sweep_pairs(*pt, at_edge, tally);
+  }
+  report_sweep(title, tally, seed);
 }
 
 }  // namespace shaftwork::test

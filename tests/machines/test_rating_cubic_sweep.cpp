@@ -147,19 +147,6 @@ TEST_CASE("cubic sweep: every solvable pattern on real-gas compressors and expan
   const long count = test::env_count("SHAFTWORK_CUBIC_SWEEP", 60);
   const auto seed = static_cast<std::uint64_t>(test::env_count("SHAFTWORK_RANDOM_SEED", 20261202));
   Generator random(seed);
-  test::SweepTally tally;
-  for (long n = 0; n < count; ++n) {
-    const Kind kind = static_cast<Kind>(n % static_cast<long>(kKindNames.size()));
-    std::optional<SweepPoint> pt;
-    for (int attempt = 0; attempt < 50 && !pt; ++attempt) {
-      pt = random.next(kind);
-      if (!pt) ++tally.skipped;
-    }
-    REQUIRE(pt.has_value());  // each kind's draws lie mostly in the gas phase
-    ++tally.points;
-    ++tally.by_kind[pt->kind];
-    test::check_reference(*pt, tally);
-    test::sweep_pairs(*pt, nullptr, tally);
-  }
-  test::report_sweep("cubic sweep", tally, seed);
+  test::run_sweep("cubic sweep", count, seed, kKindNames.size(),
+                  [&](std::size_t kind) { return random.next(static_cast<Kind>(kind)); }, nullptr);
 }

@@ -187,19 +187,6 @@ TEST_CASE("IF97 sweep: every solvable pattern on every kind of steam and water m
   const long count = test::env_count("SHAFTWORK_IF97_SWEEP", 160);
   const auto seed = static_cast<std::uint64_t>(test::env_count("SHAFTWORK_RANDOM_SEED", 20261209));
   Generator random(seed);
-  test::SweepTally tally;
-  for (long n = 0; n < count; ++n) {
-    const Kind kind = static_cast<Kind>(n % static_cast<long>(kKindNames.size()));
-    std::optional<SweepPoint> pt;
-    for (int attempt = 0; attempt < 50 && !pt; ++attempt) {
-      pt = random.next(kind);
-      if (!pt) ++tally.skipped;
-    }
-    REQUIRE(pt.has_value());  // each kind's draws lie mostly inside IF97's range
-    ++tally.points;
-    ++tally.by_kind[pt->kind];
-    test::check_reference(*pt, tally);
-    test::sweep_pairs(*pt, on_if97_edge, tally);
-  }
-  test::report_sweep("IF97 sweep", tally, seed);
+  test::run_sweep("IF97 sweep", count, seed, kKindNames.size(),
+                  [&](std::size_t kind) { return random.next(static_cast<Kind>(kind)); }, on_if97_edge);
 }
