@@ -18,6 +18,7 @@
 #include <iostream>
 #include <map>
 #include <optional>
+#include <random>
 #include <memory>
 #include <sstream>
 #include <string>
@@ -75,6 +76,18 @@ struct SweepPoint {
     P = forward.power.value();
     return true;
   }
+};
+
+// The draws of a sweep's generator, from a seeded engine.
+class SeededDraws {
+ protected:
+  explicit SeededDraws(std::uint64_t seed) : rng_(seed) {}
+  double uniform(double low, double high) { return std::uniform_real_distribution<double>(low, high)(rng_); }
+  double log_uniform(double low, double high) { return std::exp(uniform(std::log(low), std::log(high))); }
+  int pick(int n) { return std::uniform_int_distribution<int>(0, n - 1)(rng_); }
+
+ private:
+  std::mt19937_64 rng_;
 };
 
 struct SweepTally {

@@ -22,7 +22,6 @@
 #include <cstdint>
 #include <memory>
 #include <optional>
-#include <random>
 #include <vector>
 
 #include <catch2/catch.hpp>
@@ -78,9 +77,9 @@ std::shared_ptr<const CubicGas> model_of(Kind kind) {
   return booster_pr;
 }
 
-class Generator {
+class Generator : test::SeededDraws {
  public:
-  explicit Generator(std::uint64_t seed) : rng_(seed) {}
+  explicit Generator(std::uint64_t seed) : SeededDraws(seed) {}
 
   // The next point of `kind`, rated forward; empty when the model refuses the draw.
   std::optional<SweepPoint> next(Kind kind) {
@@ -99,10 +98,6 @@ class Generator {
   }
 
  private:
-  double uniform(double low, double high) { return std::uniform_real_distribution<double>(low, high)(rng_); }
-  double log_uniform(double low, double high) { return std::exp(uniform(std::log(low), std::log(high))); }
-  int pick(int n) { return std::uniform_int_distribution<int>(0, n - 1)(rng_); }
-
   void draw(SweepPoint& pt, Kind kind) {
     pt.machine = MachineKind::compressor;
     pt.eta = uniform(0.6, 0.9);
@@ -138,7 +133,6 @@ class Generator {
     }
   }
 
-  std::mt19937_64 rng_;
 };
 
 }  // namespace

@@ -25,7 +25,6 @@
 #include <cstdint>
 #include <memory>
 #include <optional>
-#include <random>
 
 #include <catch2/catch.hpp>
 
@@ -51,9 +50,9 @@ constexpr std::array<const char*, 8> kKindNames = {"steam compressor",      "MVR
 
 double tsat(double p) { return *kWater->saturation_temperature(std::min(p, 22e6)); }
 
-class Generator {
+class Generator : test::SeededDraws {
  public:
-  explicit Generator(std::uint64_t seed) : rng_(seed) {}
+  explicit Generator(std::uint64_t seed) : SeededDraws(seed) {}
 
   // The next point of `kind`, rated forward; empty when IF97's range refuses the draw.
   std::optional<SweepPoint> next(Kind kind) {
@@ -75,10 +74,6 @@ class Generator {
   }
 
  private:
-  double uniform(double low, double high) { return std::uniform_real_distribution<double>(low, high)(rng_); }
-  double log_uniform(double low, double high) { return std::exp(uniform(std::log(low), std::log(high))); }
-  int pick(int n) { return std::uniform_int_distribution<int>(0, n - 1)(rng_); }
-
   void draw(SweepPoint& pt, Kind kind) {
     switch (kind) {
       case Kind::compressor:
@@ -167,7 +162,6 @@ class Generator {
     }
   }
 
-  std::mt19937_64 rng_;
 };
 
 // A solvable pair refused is excused only where a sought value lies exactly on the edge of
