@@ -51,8 +51,6 @@ std::string show_mass_flow(double kg_per_s);
 SimilarityCheck ratio_check(const std::string& parameter, const std::string& point, std::optional<double> test,
                             std::optional<double> guarantee, double ratio);
 
-// The check of q among r's, or nullptr.
-const Check* find_check(const GuaranteeResult& r, Checked q);
 // `value` moved by `percent` of itself (a tolerance bound as a value); empty for an open bound.
 std::optional<double> tolerance_bound(double value, const std::optional<double>& percent);
 // The guarantee of a curve reading from the check made on it: the guaranteed value, the

@@ -223,6 +223,9 @@ struct GuaranteeResult {
   std::optional<CurveReadings> readings;
 };
 
+// The check of q among r's, or nullptr.
+const Check* find_check(const GuaranteeResult& r, Checked q);
+
 // Converts `points` (rated, all of one machine kind) to `guarantee` and judges it.
 // Throws bad_input with a message for the user when the guarantee cannot be judged: no
 // flow (compressors, pumps), a pump grade on another machine, a guaranteed flow beyond the
