@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <filesystem>
 
 #include <fmt/format.h>
 
@@ -176,7 +177,7 @@ GuaranteeChart make_guarantee_chart(const io::TestOutcome& t, const ProcessChart
   shape.machine = t.result->machine;
   const io::DisplayUnits du(options.system, options.system_forced, t.units_from ? &*t.units_from : nullptr, shape);
   GuaranteeChart chart = chart_of(*t.result, du);
-  chart.title = fmt::format("test of {}", t.origin);
+  chart.title = fmt::format("test of {}", std::filesystem::path(t.origin).filename().string());
   const std::string what = t.units_from ? fmt::format("the {} on {}", t.units_from->machine_written,
                                                       t.units_from->fluid_label)
                                         : std::string(machines::machine_name(t.result->machine));
