@@ -56,8 +56,10 @@ void draw_lines(cairo_t* cr, const GuaranteeChart& chart, const GuaranteePanel& 
   cairo_restore(cr);
 }
 
-// A value read on the curve: the verdict's mark and word, or an open ring without a check.
-void draw_reading(cairo_t* cr, Point read, const std::optional<machines::Verdict>& verdict, const Axes& axes) {
+// A value read on the curve: the verdict's mark and its word below it, to the right (to the
+// left with `left`, or when the frame is near), or an open ring without a check.
+void draw_reading(cairo_t* cr, Point read, const std::optional<machines::Verdict>& verdict, const Axes& axes,
+                  bool left = false) {
   const Point at = axes.page(read);
   if (!verdict) {
     draw_open_mark(cr, at, Mark::circle, kInk, 9, 1.4);
@@ -66,7 +68,7 @@ void draw_reading(cairo_t* cr, Point read, const std::optional<machines::Verdict
   draw_mark(cr, at, verdict_mark(*verdict), verdict_colour(*verdict), 12);
   const std::string word = verdict_word(*verdict);
   const double width = text_width(cr, word, 9, true);
-  const bool left = at.x + 12 + width > axes.area.x + axes.area.width - 2;
+  left = left || at.x + 12 + width > axes.area.x + axes.area.width - 2;
   draw_text(cr, {left ? at.x - 12 : at.x + 12, at.y + 13}, word, 9, left ? Align::right : Align::left, true,
             verdict_colour(*verdict));
 }
@@ -85,7 +87,7 @@ void draw_panel(cairo_t* cr, const GuaranteeChart& chart, const GuaranteePanel& 
   for (const Point& q : p.points) draw_mark(cr, axes.page(q), Mark::circle, kInletColour, 8);
   if (p.guarantee) draw_guarantee(cr, p, axes);
   draw_reading(cr, p.read, p.verdict, axes);
-  if (first && chart.flow_read) draw_reading(cr, *chart.flow_read, p.verdict, axes);
+  if (first && chart.flow_read) draw_reading(cr, *chart.flow_read, p.verdict, axes, true);
 }
 
 // The overall verdict in a box of its colour.
