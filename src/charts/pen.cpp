@@ -25,9 +25,19 @@ void stroke_line(cairo_t* cr, const std::vector<Point>& points, Colour c, double
   cairo_restore(cr);
 }
 
-void draw_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size) {
-  const double r = size / 2;
-  cairo_save(cr);
+namespace {
+
+// An X of two bars, each 0.7 r wide, reaching 1.45 r from the centre along the diagonals.
+void cross_path(cairo_t* cr, Point at, double r) {
+  const double a = 1.45 * r / std::sqrt(2.0), w = 0.35 * r * std::sqrt(2.0);  // arm end, half-width along an axis
+  const double xs[] = {0, a - w, a, w, a, a - w, 0, -(a - w), -a, -w, -a, -(a - w)};
+  const double ys[] = {-w, -a, -(a - w), 0, a - w, a, w, a, a - w, 0, -(a - w), -a};
+  cairo_move_to(cr, at.x + xs[0], at.y + ys[0]);
+  for (int i = 1; i < 12; ++i) cairo_line_to(cr, at.x + xs[i], at.y + ys[i]);
+  cairo_close_path(cr);
+}
+
+void mark_path(cairo_t* cr, Point at, Mark mark, double r) {
   cairo_new_path(cr);
   switch (mark) {
     case Mark::circle: cairo_arc(cr, at.x, at.y, r, 0, 2 * M_PI); break;
@@ -45,11 +55,29 @@ void draw_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size) {
       cairo_line_to(cr, at.x - r, at.y + 0.7 * r);
       cairo_close_path(cr);
       break;
+    case Mark::cross: cross_path(cr, at, r); break;
   }
+}
+
+}  // namespace
+
+void draw_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size) {
+  cairo_save(cr);
+  mark_path(cr, at, mark, size / 2);
   set_colour(cr, c);
   cairo_fill_preserve(cr);
   cairo_set_source_rgb(cr, 1, 1, 1);
   cairo_set_line_width(cr, 1.2);
+  cairo_stroke(cr);
+  cairo_restore(cr);
+}
+
+void draw_open_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size, double width) {
+  cairo_save(cr);
+  mark_path(cr, at, mark, size / 2);
+  set_colour(cr, c);
+  cairo_set_line_width(cr, width);
+  cairo_set_line_join(cr, CAIRO_LINE_JOIN_MITER);
   cairo_stroke(cr);
   cairo_restore(cr);
 }

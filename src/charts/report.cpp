@@ -1,12 +1,14 @@
 // The test report: the layout of a case's A4 page, and the stream that writes the pages.
 #include "shaftwork/charts/report.hpp"
 
+#include <filesystem>
 #include <sstream>
 #include <vector>
 
 #include <fmt/format.h>
 
 #include "shaftwork/charts/document.hpp"
+#include "shaftwork/charts/guarantee_chart.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/atomic_file.hpp"
 
@@ -16,7 +18,7 @@ namespace {
 const Rect& kBody = kReportBody;
 constexpr double kFooterHeight = 112;  // models, sources and the caution
 constexpr double kTopOfMiddle = 112;   // below the header
-constexpr double kLargestText = 8, kSmallestText = 5;
+constexpr double kLargestText = 8, kSmallestText = 5, kNarrowestText = 6;
 constexpr double kLeading = 1.22;      // line spacing over the text size
 
 // What the middle of a page says: the given values, the table, the warnings (or the error).
@@ -25,7 +27,22 @@ struct Middle {
   std::vector<std::string> table;    // the table's lines, warnings apart
   std::vector<std::string> notes;    // warnings, or the error of a case that was not rated
   std::string notes_title;
+  std::string table_title = "Rated";
 };
+
+// The lines of a table writer, from the `skip`-th on, empty ones and warnings left out.
+template <class Write>
+std::vector<std::string> table_lines(Write write, std::size_t skip) {
+  std::ostringstream table;
+  write(table);
+  std::istringstream lines(table.str());
+  std::vector<std::string> out;
+  std::string line;
+  for (std::size_t n = 0; std::getline(lines, line); ++n) {
+    if (n >= skip && line.rfind("  warning: ", 0) != 0 && !line.empty()) out.push_back(line);
+  }
+  return out;
+}
 
 Middle middle_of(const io::CaseOutcome& o, const ReportOptions& options) {
   Middle m;
@@ -37,14 +54,8 @@ Middle middle_of(const io::CaseOutcome& o, const ReportOptions& options) {
     }
   }
   if (o.ok()) {
-    std::ostringstream table;
-    io::write_case_table(table, o, options.table);
-    std::istringstream lines(table.str());
-    std::string line;
-    std::getline(lines, line);  // the case's id: the page's title
-    while (std::getline(lines, line)) {
-      if (line.rfind("  warning: ", 0) != 0 && !line.empty()) m.table.push_back(line);
-    }
+    // From the second line: the first is the case's id, the page's title.
+    m.table = table_lines([&](std::ostream& out) { io::write_case_table(out, o, options.table); }, 1);
     m.notes = o.warnings;
     m.notes_title = "Warnings";
   } else {
@@ -60,7 +71,25 @@ struct Line {
   enum class Face { heading, plain, mono } face = Face::plain;
 };
 
-std::vector<Line> lay_out(cairo_t* cr, const Middle& m, double size) {
+// A mono line wider than the body broken at spaces, each rest indented under it.
+std::vector<std::string> break_mono(cairo_t* cr, const std::string& text, double size) {
+  constexpr std::size_t kIndent = 8;
+  const auto fit = static_cast<std::size_t>(kBody.width / text_width(cr, "0", size, false, true));
+  std::vector<std::string> out;
+  std::string rest = text;
+  while (rest.size() > fit && fit > kIndent) {
+    std::size_t cut = rest.find_last_of(' ', fit);
+    if (cut == std::string::npos || cut <= rest.find_first_not_of(' ')) cut = fit;  // no space: cut the word
+    out.push_back(rest.substr(0, cut));
+    const std::size_t next = rest.find_first_not_of(' ', cut);
+    rest = std::string(kIndent, ' ') + (next == std::string::npos ? "" : rest.substr(next));
+  }
+  out.push_back(rest);
+  return out;
+}
+
+// `wrap`: mono lines that do not fit are broken (at the smallest size, as the last resort).
+std::vector<Line> lay_out(cairo_t* cr, const Middle& m, double size, bool wrap = false) {
   std::vector<Line> lines;
   const auto paragraph = [&](const std::string& text) {
     for (std::string& l : wrap_text(cr, text, size, kBody.width)) lines.push_back({std::move(l), Line::Face::plain});
@@ -72,8 +101,10 @@ std::vector<Line> lay_out(cairo_t* cr, const Middle& m, double size) {
     paragraph(flow);
   }
   if (!m.table.empty()) {
-    lines.push_back({"Rated", Line::Face::heading});
-    for (const std::string& t : m.table) lines.push_back({t, Line::Face::mono});
+    lines.push_back({m.table_title, Line::Face::heading});
+    for (const std::string& t : m.table) {
+      for (std::string& l : wrap ? break_mono(cr, t, size) : std::vector{t}) lines.push_back({std::move(l), Line::Face::mono});
+    }
   }
   if (!m.notes.empty()) {
     lines.push_back({m.notes_title, Line::Face::heading});
@@ -99,10 +130,14 @@ bool fits_across(cairo_t* cr, const std::vector<Line>& lines, double size) {
 void draw_middle(cairo_t* cr, const Middle& m, double top, double bottom) {
   double size = kLargestText;
   std::vector<Line> lines = lay_out(cr, m, size);
-  while (size > kSmallestText && (height_of(lines, size) > bottom - top || !fits_across(cr, lines, size))) {
+  // Smaller for a long table down to kSmallestText; for a wide one down to kNarrowestText,
+  // then its widest lines are broken.
+  while (size > kSmallestText && (height_of(lines, size) > bottom - top ||
+                                  (size > kNarrowestText && !fits_across(cr, lines, size)))) {
     size -= 0.25;
     lines = lay_out(cr, m, size);
   }
+  if (!fits_across(cr, lines, size)) lines = lay_out(cr, m, size, true);
   double y = top;
   for (const Line& l : lines) {
     if (l.face == Line::Face::heading) y += 5;
@@ -117,36 +152,50 @@ void draw_middle(cairo_t* cr, const Middle& m, double top, double bottom) {
   }
 }
 
-void draw_header(cairo_t* cr, const io::CaseOutcome& o) {
+void draw_header(cairo_t* cr, const std::string& title, const std::string& what) {
   draw_text(cr, {kBody.x, kBody.y}, "Test report", 8, Align::left, false, kFaint);
   draw_text(cr, {kBody.x + kBody.width, kBody.y}, "shaftwork 0.1.0", 8, Align::right, false, kFaint);
-  draw_text(cr, {kBody.x, kBody.y + 20}, o.id, 14, Align::left, true);
-  std::string what = o.origin;
-  if (o.input) {
-    what = fmt::format("{} on {}{}", o.input->machine_written, o.input->fluid_label,
-                       o.origin.empty() ? "" : fmt::format(", from {}", o.origin));
-  }
+  draw_text(cr, {kBody.x, kBody.y + 20}, title, 14, Align::left, true);
   draw_text(cr, {kBody.x, kBody.y + 36}, what, 9);
   stroke_line(cr, {{kBody.x, kBody.y + 44}, {kBody.x + kBody.width, kBody.y + 44}}, kFaint, 0.6);
 }
 
-void draw_footer(cairo_t* cr, const io::CaseOutcome& o) {
+// What a case is: "compressor on air, from FILE".
+std::string what_of(const io::CaseOutcome& o) {
+  if (!o.input) return o.origin;
+  return fmt::format("{} on {}{}", o.input->machine_written, o.input->fluid_label,
+                     o.origin.empty() ? "" : fmt::format(", from {}", o.origin));
+}
+
+std::string model_text(const std::optional<io::CaseInput>& input) {
+  if (!input || !input->fluid) return "";
+  return fmt::format("Property model: {}: {}.", input->fluid->model_name(), input->fluid->description());
+}
+
+// The models and sources (`text`, one paragraph each), then the caution.
+void draw_footer(cairo_t* cr, const std::vector<std::string>& text) {
   double y = kBody.y + kBody.height - kFooterHeight;
   stroke_line(cr, {{kBody.x, y}, {kBody.x + kBody.width, y}}, kFaint, 0.6);
   y += 14;
   draw_text(cr, {kBody.x, y}, "Models and sources", 9.5, Align::left, true);
-  std::vector<std::string> text;
-  if (o.input && o.input->fluid) {
-    text.push_back(fmt::format("Property model: {}: {}.", o.input->fluid->model_name(), o.input->fluid->description()));
-  }
-  text.push_back("Method: the steady-flow energy balance; the isentropic outlet h(p2, s1); the polytropic efficiency "
-                 "by the path integral of v dp (shaftwork's docs/method.md).");
   for (const std::string& t : text) {
+    if (t.empty()) continue;
     for (const std::string& l : wrap_text(cr, t, 7.5, kBody.width)) draw_text(cr, {kBody.x, y += 9.5}, l, 7.5);
   }
   y += 15;
   draw_text(cr, {kBody.x, y}, "Caution", 9.5, Align::left, true);
   for (const std::string& l : wrap_text(cr, kCautionText, 7.5, kBody.width)) draw_text(cr, {kBody.x, y += 9.5}, l, 7.5);
+}
+
+constexpr const char* kRatingMethod =
+    "Method: the steady-flow energy balance; the isentropic outlet h(p2, s1); the polytropic efficiency by the path "
+    "integral of v dp (shaftwork's docs/method.md).";
+
+// The guarantee's method and where its figures come from.
+std::string guarantee_method(const machines::GuaranteeResult& g) {
+  return fmt::format("Guarantee: {} (shaftwork's docs/guarantee.md, which names the test codes and the figures "
+                     "carried from memory{}).",
+                     g.method, g.grade ? ", ISO 9906:2012's grades among them" : "");
 }
 
 void draw_chart(cairo_t* cr, const io::CaseOutcome& o, const ReportOptions& options) {
@@ -164,21 +213,91 @@ void draw_chart(cairo_t* cr, const io::CaseOutcome& o, const ReportOptions& opti
   }
 }
 
+// A guarantee page: the guarantee's table (or why it was not judged), its chart when there
+// is one, its method and the caution.
+struct GuaranteePage {
+  std::string title, what;
+  Middle middle;
+  std::optional<GuaranteeChart> chart;
+  std::vector<std::string> sources;
+};
+
+void draw_guarantee_page(cairo_t* cr, const GuaranteePage& page) {
+  draw_header(cr, page.title, page.what);
+  const ReportChartPlace place = report_guarantee_chart_place();
+  const double bottom = page.chart ? place.y : kBody.y + kBody.height - kFooterHeight - 8;
+  draw_middle(cr, page.middle, kBody.y + kTopOfMiddle - 60, bottom);
+  if (page.chart) {
+    cairo_save(cr);
+    cairo_translate(cr, place.x, place.y);
+    cairo_scale(cr, place.scale, place.scale);
+    draw_guarantee_chart(cr, *page.chart, kChartPage);
+    cairo_restore(cr);
+  }
+  draw_footer(cr, page.sources);
+}
+
+GuaranteePage case_guarantee_page(const io::CaseOutcome& o, const ReportOptions& options) {
+  GuaranteePage page{o.id, "", {}, make_guarantee_chart(o, options.chart), {}};
+  page.what = page.chart->subtitle;
+  page.middle.table_title = "Guarantee";
+  page.middle.table = table_lines(
+      [&](std::ostream& out) {
+        io::write_guarantee_table(out, *o.guarantee,
+                                  io::DisplayUnits(options.table.system, options.table.system_forced, &*o.input, *o.rating));
+      },
+      0);
+  page.sources = {model_text(o.input), guarantee_method(*o.guarantee)};
+  return page;
+}
+
+GuaranteePage test_page(const io::TestOutcome& t, const ReportOptions& options) {
+  GuaranteePage page{fmt::format("test of {}", std::filesystem::path(t.origin).filename().string()),
+                     fmt::format("{} test points, from {}", t.points.size(), t.origin), {}, {}, {}};
+  page.middle.table_title = "Guarantee";
+  if (t.result) {
+    if (has_guarantee_chart(*t.result)) {
+      page.chart = make_guarantee_chart(t, options.chart);
+      page.what = fmt::format("{}, from {}", page.chart->subtitle, t.origin);
+    }
+    page.middle.table = table_lines([&](std::ostream& out) { io::write_test_table(out, t, options.table); }, 1);
+    page.middle.notes = t.warnings;
+    page.middle.notes_title = "Warnings";
+    page.sources = {model_text(t.units_from), guarantee_method(*t.result)};
+  } else {
+    page.middle.notes = {t.error};
+    page.middle.notes.insert(page.middle.notes.end(), t.warnings.begin(), t.warnings.end());
+    page.middle.notes_title = "Not judged";
+    page.sources = {model_text(t.units_from)};
+  }
+  return page;
+}
+
 class ReportStream final : public io::ResultStream {
  public:
   ReportStream(const std::string& path, const ReportOptions& options)
       : options_(options), file_(path), document_(ImageFormat::pdf, file_, kA4Width, kA4Height) {}
   void add(const io::CaseOutcome& o) override {
     draw_report_page(document_.begin_page(), o, options_);
-    document_.end_page();
-    ++pages_;
+    end_page();
+    if (o.ok() && o.guarantee && has_guarantee_chart(*o.guarantee)) draw(case_guarantee_page(o, options_));
   }
+  void add_test(const io::TestOutcome& t) override { draw(test_page(t, options_)); }
   void finish() override {
     document_.finish();
     if (pages_ > 0) file_.commit();  // no case at all: no file
   }
 
  private:
+  void draw(const GuaranteePage& page) {
+    draw_guarantee_page(document_.begin_page(), page);
+    end_page();
+  }
+  void end_page() {
+    document_.end_page();
+    ++pages_;
+  }
+
   ReportOptions options_;
   io::OutputFile file_;
   Document document_;
@@ -187,18 +306,26 @@ class ReportStream final : public io::ResultStream {
 
 }  // namespace
 
-ReportChartPlace report_chart_place() {
-  const double width = kChartPage.width * kReportChartScale, height = kChartPage.height * kReportChartScale;
-  return {kBody.x + (kBody.width - width) / 2, kBody.y + kBody.height - kFooterHeight - height - 4, kReportChartScale};
+namespace {
+
+// A chart drawn into kChartPage at `scale`, centred across the body, just above the footer.
+ReportChartPlace chart_place(double scale) {
+  const double width = kChartPage.width * scale, height = kChartPage.height * scale;
+  return {kBody.x + (kBody.width - width) / 2, kBody.y + kBody.height - kFooterHeight - height - 4, scale};
 }
 
+}  // namespace
+
+ReportChartPlace report_chart_place() { return chart_place(kReportChartScale); }
+ReportChartPlace report_guarantee_chart_place() { return chart_place(kBody.width / kChartPage.width); }
+
 void draw_report_page(cairo_t* cr, const io::CaseOutcome& o, const ReportOptions& options) {
-  draw_header(cr, o);
+  draw_header(cr, o.id, what_of(o));
   const bool chart = o.ok();
   const double bottom = chart ? report_chart_place().y : kBody.y + kBody.height - kFooterHeight - 8;
   draw_middle(cr, middle_of(o, options), kBody.y + kTopOfMiddle - 60, bottom);
   if (chart) draw_chart(cr, o, options);
-  draw_footer(cr, o);
+  draw_footer(cr, {model_text(o.input), kRatingMethod});
 }
 
 std::unique_ptr<io::ResultStream> make_report_stream(const std::string& path, const ReportOptions& options) {

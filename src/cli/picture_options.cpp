@@ -18,8 +18,8 @@ std::vector<std::string> PictureOptions::outputs() const {
 
 void add_picture_options(CLI::App& sub, PictureOptions& options) {
   sub.add_option("--plot", options.plot,
-                 "Draw each rated case's process chart into this file: .svg, .png or .pdf (several cases: "
-                 "FILE-<id>.svg/.png, or one PDF page each)");
+                 "Draw each rated case's process chart, and each guarantee's chart, into this file: .svg, .png or "
+                 ".pdf (several cases: FILE-<id>.svg/.png, or one PDF page each)");
   sub.add_option("--plot-diagram", options.diagram, "The process chart's axes: h-s (enthalpy) or T-s (temperature)")
       ->check(CLI::IsMember({"h-s", "T-s"}))
       ->capture_default_str();
@@ -47,6 +47,11 @@ void ResultTee::each_picture(Act act) {
 void ResultTee::add(const io::CaseOutcome& outcome) {
   results_.add(outcome);
   each_picture([&](io::ResultStream& p) { p.add(outcome); });
+}
+
+void ResultTee::add_test(const io::TestOutcome& test) {
+  results_.add_test(test);
+  each_picture([&](io::ResultStream& p) { p.add_test(test); });
 }
 
 void ResultTee::finish() {

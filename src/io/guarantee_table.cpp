@@ -13,28 +13,12 @@ using machines::Check;
 constexpr int kLabelWidth = 24;
 constexpr int kValueWidth = 16;
 
-Precision precision_of(units::Dimension d) {
-  if (d == units::Dimension::fraction) return {Precision::Kind::decimals, 4};
-  if (d == units::Dimension::temperature) return {Precision::Kind::decimals, 2};
-  return {Precision::Kind::significant, 5};
-}
-
 std::string value_text(const std::optional<double>& v, units::Dimension d, const DisplayUnits& units) {
-  return v ? units.text(*v, d, precision_of(d)) : "-";
+  return v ? units.text(*v, d, guarantee_precision(d)) : "-";
 }
 
 // "-2", "+4", "0".
 std::string signed_percent(double x) { return x == 0 ? "0" : fmt::format("{:+g}", x); }
-
-// "-2 to +4 %", ">= -3 %", "<= +4 %", "any".
-std::string tolerance_text(const machines::Tolerance& t) {
-  if (t.min_percent && t.max_percent) {
-    return fmt::format("{} to {} %", signed_percent(*t.min_percent), signed_percent(*t.max_percent));
-  }
-  if (t.min_percent) return fmt::format(">= {} %", signed_percent(*t.min_percent));
-  if (t.max_percent) return fmt::format("<= {} %", signed_percent(*t.max_percent));
-  return "any";
-}
 
 void line(std::ostream& out, std::string text) {
   text.erase(text.find_last_not_of(' ') + 1);
@@ -50,7 +34,7 @@ void check_line(std::ostream& out, const Check& c, const DisplayUnits& units) {
   line(out, fmt::format("    {:<{}}{:<{}}{:<{}}{:<{}}{:<{}}{:<{}}{}", spec.label, kLabelWidth,
                         value_text(c.measured, spec.dimension, units), kValueWidth,
                         value_text(c.converted, spec.dimension, units), kValueWidth,
-                        units.text(c.guaranteed, spec.dimension, precision_of(spec.dimension)), kValueWidth, tolerance,
+                        units.text(c.guaranteed, spec.dimension, guarantee_precision(spec.dimension)), kValueWidth, tolerance,
                         kValueWidth + 6, deviation, kValueWidth, machines::verdict_name(c.verdict)));
   if (!c.note.empty()) line(out, fmt::format("    {:<{}}{}", "", kLabelWidth, c.note));
 }
@@ -67,6 +51,21 @@ void similarity_line(std::ostream& out, const machines::SimilarityCheck& s) {
 
 }  // namespace
 
+Precision guarantee_precision(units::Dimension d) {
+  if (d == units::Dimension::fraction) return {Precision::Kind::decimals, 4};
+  if (d == units::Dimension::temperature) return {Precision::Kind::decimals, 2};
+  return {Precision::Kind::significant, 5};
+}
+
+std::string tolerance_text(const machines::Tolerance& t) {
+  if (t.min_percent && t.max_percent) {
+    return fmt::format("{} to {} %", signed_percent(*t.min_percent), signed_percent(*t.max_percent));
+  }
+  if (t.min_percent) return fmt::format(">= {} %", signed_percent(*t.min_percent));
+  if (t.max_percent) return fmt::format("<= {} %", signed_percent(*t.max_percent));
+  return "any";
+}
+
 void write_guarantee_table(std::ostream& out, const machines::GuaranteeResult& g, const DisplayUnits& units) {
   line(out, fmt::format("  guarantee: {}", machines::verdict_name(g.verdict)));
   line(out, fmt::format("    {}", g.method));
@@ -78,7 +77,7 @@ void write_guarantee_table(std::ostream& out, const machines::GuaranteeResult& g
                                    : v.key == "outlet.quality"     ? "outlet quality"
                                                                    : "";
     if (label.empty()) continue;
-    at += fmt::format("{}{} {}", at.empty() ? "" : ", ", label, units.text(v.value, v.dimension, precision_of(v.dimension)));
+    at += fmt::format("{}{} {}", at.empty() ? "" : ", ", label, units.text(v.value, v.dimension, guarantee_precision(v.dimension)));
   }
   if (!at.empty()) line(out, fmt::format("    at the guarantee: {}", at));
   line(out, fmt::format("    {:<{}}{:<{}}{:<{}}{:<{}}{:<{}}{:<{}}{}", "quantity", kLabelWidth, "measured", kValueWidth,

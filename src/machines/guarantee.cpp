@@ -8,6 +8,7 @@
 
 #include <fmt/format.h>
 
+#include "curve.hpp"
 #include "guarantee_common.hpp"
 #include "problem.hpp"
 #include "shaftwork/error.hpp"
@@ -301,6 +302,29 @@ GuaranteeResult judge(const Guarantee& g, std::span<const TestPoint> points) {
     }
   }
   return r;
+}
+
+double CurveReading::at(double q) const {
+  return coefficients.empty() ? read_linear(flow, value, q) : polynomial(coefficients, q);
+}
+
+const Check* find_check(const GuaranteeResult& r, Checked q) {
+  for (const Check& c : r.checks) {
+    if (c.quantity == q) return &c;
+  }
+  return nullptr;
+}
+
+std::optional<double> tolerance_bound(double value, const std::optional<double>& percent) {
+  if (!percent) return std::nullopt;
+  return value * (1 + *percent / 100);
+}
+
+void set_guarantee(CurveReading& reading, const Check& check) {
+  reading.guaranteed = check.guaranteed;
+  reading.low = tolerance_bound(check.guaranteed, check.tolerance.min_percent);
+  reading.high = tolerance_bound(check.guaranteed, check.tolerance.max_percent);
+  reading.check = check.quantity;
 }
 
 }  // namespace shaftwork::machines

@@ -51,6 +51,12 @@ std::string show_mass_flow(double kg_per_s);
 SimilarityCheck ratio_check(const std::string& parameter, const std::string& point, std::optional<double> test,
                             std::optional<double> guarantee, double ratio);
 
+// `value` moved by `percent` of itself (a tolerance bound as a value); empty for an open bound.
+std::optional<double> tolerance_bound(double value, const std::optional<double>& percent);
+// The guarantee of a curve reading from the check made on it: the guaranteed value, the
+// tolerance as values of the quantity, and the check.
+void set_guarantee(CurveReading& reading, const Check& check);
+
 GuaranteeResult judge_compressor(const Guarantee& g, std::span<const TestPoint> points);
 GuaranteeResult judge_pump(const Guarantee& g, std::span<const TestPoint> points);
 GuaranteeResult judge_turbine(const Guarantee& g, std::span<const TestPoint> points);

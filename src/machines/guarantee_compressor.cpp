@@ -17,6 +17,7 @@
 #include "curve.hpp"
 #include "guarantee_common.hpp"
 #include "problem.hpp"
+#include "shaftwork/error.hpp"
 #include "shaftwork/fluids/speed_of_sound.hpp"
 #include "shaftwork/machines/impeller.hpp"
 #include "shaftwork/machines/polytropic.hpp"
@@ -154,6 +155,64 @@ std::vector<ConvertedPoint> point_values(const std::vector<Converted>& conv) {
   return out;
 }
 
+// The polytropic head [J/kg] from the guarantee inlet to the discharge pressure p2 along
+// the path of efficiency eta_p: H_p = eta_p (h_path(p2) - h1), the inverse of
+// discharge_pressure_for_head (0 for p2 at or below the inlet pressure); empty when the
+// path cannot be traced there.
+std::optional<double> head_to(const GuaranteeInlet& gin, const std::optional<double>& p2, double eta_p) {
+  if (!p2) return std::nullopt;
+  if (*p2 <= gin.state.pressure) return 0.0;
+  try {
+    return eta_p * (polytropic_outlet_enthalpy(*gin.fluid, gin.state, *p2, eta_p) - gin.state.enthalpy);
+  } catch (const Error&) {
+    return std::nullopt;
+  }
+}
+
+// The head curve with the guaranteed head, or the guaranteed discharge pressure as the
+// head it asks for with the efficiency read at Q_G.
+CurveReading head_reading(const GuaranteeInlet& gin, const std::vector<Converted>& conv, double q_g, double eta_read,
+                          const GuaranteeResult& r) {
+  CurveReading head;
+  head.key = "head.polytropic";
+  head.dimension = D::specific_energy;
+  for (const Converted& c : conv) {
+    head.flow.push_back(c.flow);
+    head.value.push_back(c.head);
+  }
+  head.read_flow = q_g;
+  head.read_value = head.at(q_g);
+  if (const Check* h = find_check(r, Checked::head_polytropic)) {
+    set_guarantee(head, *h);
+  } else if (const Check* p = find_check(r, Checked::outlet_pressure)) {
+    head.guaranteed = head_to(gin, p->guaranteed, eta_read);
+    if (!head.guaranteed) return head;
+    head.low = head_to(gin, tolerance_bound(p->guaranteed, p->tolerance.min_percent), eta_read);
+    head.high = head_to(gin, tolerance_bound(p->guaranteed, p->tolerance.max_percent), eta_read);
+    head.check = Checked::outlet_pressure;
+  }
+  return head;
+}
+
+// The efficiency curve: the polytropic one (the conversion keeps it), or the isentropic one
+// of the points rated at the guarantee when only that is guaranteed.
+CurveReading efficiency_reading(const std::vector<Converted>& conv, double q_g, const Rating& at,
+                                const GuaranteeResult& r) {
+  const Check* polytropic = find_check(r, Checked::efficiency_polytropic);
+  const Check* isentropic = find_check(r, Checked::efficiency_isentropic);
+  const bool by_isentropic = isentropic && !polytropic;
+  CurveReading eta;
+  eta.key = by_isentropic ? "efficiency.isentropic" : "efficiency.polytropic";
+  for (const Converted& c : conv) {
+    eta.flow.push_back(c.flow);
+    eta.value.push_back(by_isentropic ? c.rating.efficiency_isentropic : c.eta_p);
+  }
+  eta.read_flow = q_g;
+  eta.read_value = by_isentropic ? at.efficiency_isentropic : eta.at(q_g);
+  if (polytropic || isentropic) set_guarantee(eta, by_isentropic ? *isentropic : *polytropic);
+  return eta;
+}
+
 }  // namespace
 
 GuaranteeResult judge_compressor(const Guarantee& g, std::span<const TestPoint> points) {
@@ -170,8 +229,8 @@ GuaranteeResult judge_compressor(const Guarantee& g, std::span<const TestPoint> 
     eta_m.push_back(c.eta_m);
   }
   refuse_beyond_reach(x, q_g, "the guaranteed inlet volume flow", show_volume_flow);
-  const Rating at = rate_at_guarantee(gin, read_linear(x, head, q_g), read_linear(x, eta_p, q_g),
-                                      read_linear(x, eta_m, q_g), m_g);
+  const double eta_read = read_linear(x, eta_p, q_g);
+  const Rating at = rate_at_guarantee(gin, read_linear(x, head, q_g), eta_read, read_linear(x, eta_m, q_g), m_g);
   const std::size_t nearest = nearest_index(x, q_g);
   GuaranteeResult r;
   r.method = fmt::format("fan laws at equal flow coefficient, head coefficient and polytropic efficiency; {} read at "
@@ -190,6 +249,8 @@ GuaranteeResult judge_compressor(const Guarantee& g, std::span<const TestPoint> 
   r.warnings = at.warnings;  // of the guarantee point's rating (an ideal gas at pressure, ...)
   r.points = point_values(conv);
   r.nearest_point = conv[nearest].test->id;
+  r.readings.emplace().guaranteed_flow = q_g;
+  r.readings->quantities = {head_reading(gin, conv, q_g, eta_read, r), efficiency_reading(conv, q_g, at, r)};
   return r;
 }
 

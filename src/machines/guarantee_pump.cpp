@@ -136,6 +136,43 @@ double efficiency_check(const Guarantee& g, const Curves& c, const std::vector<d
   return q_read;
 }
 
+CurveReading reading(const char* key, D dimension, const std::vector<double>& q, const std::vector<double>& y,
+                     std::vector<double> fit) {
+  CurveReading r;
+  r.key = key;
+  r.dimension = dimension;
+  r.flow = q;
+  r.value = y;
+  r.coefficients = std::move(fit);
+  return r;
+}
+
+// The curves the checks were read on, for a chart: H(Q) with the tolerance cross around
+// (Q_G, H_G), and eta(Q) read at q_eta (empty: no efficiency without the power).
+CurveReadings pump_readings(const Curves& c, const std::vector<double>& h_fit, double q_g,
+                            std::optional<double> q_eta, const GuaranteeResult& r) {
+  CurveReadings out;
+  out.guaranteed_flow = q_g;
+  CurveReading head = reading("head_height", D::length, c.q, c.h, h_fit);
+  head.read_flow = q_g;
+  head.read_value = head.at(q_g);
+  if (const Check* h = find_check(r, Checked::head_height)) {
+    set_guarantee(head, *h);
+    const Check& q = *find_check(r, Checked::volume_flow);
+    out.cross = true;
+    out.flow_low = tolerance_bound(q.guaranteed, q.tolerance.min_percent);
+    out.flow_high = tolerance_bound(q.guaranteed, q.tolerance.max_percent);
+  }
+  out.quantities.push_back(std::move(head));
+  if (!q_eta) return out;
+  CurveReading eta = reading("pump_efficiency", D::fraction, c.q, c.eta, least_squares(c.q, c.eta, c.degree));
+  eta.read_flow = *q_eta;
+  eta.read_value = eta.at(*q_eta);
+  if (const Check* e = find_check(r, Checked::pump_efficiency)) set_guarantee(eta, *e);
+  out.quantities.push_back(std::move(eta));
+  return out;
+}
+
 }  // namespace
 
 GuaranteeResult judge_pump(const Guarantee& guarantee, std::span<const TestPoint> points) {
@@ -189,6 +226,7 @@ GuaranteeResult judge_pump(const Guarantee& guarantee, std::span<const TestPoint
   if (p_at_q) r.converted.push_back({"power", D::power, *p_at_q});
   if (needs_power) r.converted.push_back({"efficiency_read_at.volume_flow", D::volume_flow, q_eta});
   r.nearest_point = nearest.id;
+  r.readings = pump_readings(c, h_fit, q_g, needs_power ? std::optional(q_eta) : std::nullopt, r);
   return r;
 }
 

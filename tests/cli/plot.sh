@@ -107,6 +107,70 @@ expect "--report .png: exit 2" $(( $? == 2 ? 0 : 1 ))
 [ "$(cat "$tmp/rpng.err")" = "error: $tmp/report.png: a report is written as .pdf" ] && [ ! -s "$tmp/rpng.out" ]
 expect "--report .png: the message, no results" $? "$(cat "$tmp/rpng.err")"
 
+# Guarantees. A file's test: FILE-<file's stem>-guarantee beside the cases' charts, the
+# results and grade 1B's exit 3 unchanged by --plot.
+p12=examples/guarantees/pump-test-stand-grade-1b.json
+"$bin" rate "$p12" --plot "$tmp/p12.png" >"$tmp/p12.out" 2>"$tmp/p12.err"
+expect "a guarantee not met plots, exit 3" $(( $? == 3 ? 0 : 1 )) "$(cat "$tmp/p12.err")"
+cmp -s "$tmp/p12.out" <("$bin" rate "$p12" 2>/dev/null)
+expect "results unchanged by --plot with a guarantee" $?
+file "$tmp/p12-pump-test-stand-grade-1b-guarantee.png" | grep -q "PNG image data, 1080 x 720"
+expect "a file's test: FILE-<stem>-guarantee.png, 1080 x 720" $? "$(ls "$tmp")"
+[ -s "$tmp/p12-P-12_stand_test_point_5.png" ] && [ "$(ls "$tmp" | grep -c '^p12-.*\.png$')" = 6 ]
+expect "a file's test: the five process charts and the guarantee chart" $? "$(ls "$tmp")"
+"$bin" rate examples/guarantees/pump-test-stand-grade-2b.json --plot "$tmp/p12.pdf" >/dev/null 2>&1
+expect "a guarantee met plots, exit 0" $?
+pdfinfo "$tmp/p12.pdf" | grep -qE '^Pages: +6$'
+expect "a file's test: its page after the five cases'" $? "$(pdfinfo "$tmp/p12.pdf" | grep Pages)"
+pdftotext -layout -f 6 -l 6 "$tmp/p12.pdf" "$tmp/p12.txt"
+for text in "test of pump-test-stand-grade-2b.json" "PASS" "guarantee met" "pump head [m]" "tolerance cross"; do
+  grep -qF "$text" "$tmp/p12.txt"
+  expect "guarantee page text: $text" $? "$(cat "$tmp/p12.txt")"
+done
+
+# A case's own guarantee: FILE and FILE-guarantee.ext for one case, FILE-<id>-guarantee.ext for
+# several; a turbine's guarantee draws no chart.
+/usr/bin/python3 - examples/guarantees/plant-air-97-percent-speed.json "$tmp" <<'PY'
+import json, sys
+doc = json.load(open(sys.argv[1]))
+# Point 2, the one within 5 % of the guaranteed flow, twice: a case's own guarantee is judged on it alone.
+cases = [dict(doc["cases"][1], guarantee=doc["guarantee"], id=f"PAC-3 run {n}") for n in (1, 2)]
+json.dump(cases[0], open(sys.argv[2] + "/own.json", "w"))
+json.dump({"cases": cases}, open(sys.argv[2] + "/own2.json", "w"))
+PY
+"$bin" rate "$tmp/own.json" --plot "$tmp/own.svg" >/dev/null 2>"$tmp/own.err"
+expect "a case with its own guarantee plots, exit 0" $? "$(cat "$tmp/own.err")"
+rsvg-convert -d 108 -p 108 -o "$tmp/own-guarantee.raster.png" "$tmp/own-guarantee.svg" && [ -s "$tmp/own.svg" ]
+expect "one case: FILE and FILE-guarantee.svg" $? "$(ls "$tmp")"
+file "$tmp/own-guarantee.raster.png" | grep -q "PNG image data, 1080 x 720"
+expect "the guarantee SVG rasterises to 1080 x 720" $?
+"$bin" rate "$tmp/own2.json" --plot "$tmp/own2.png" >/dev/null 2>&1
+[ -s "$tmp/own2-PAC-3_run_1-guarantee.png" ] && [ -s "$tmp/own2-PAC-3_run_2-guarantee.png" ] && [ -s "$tmp/own2-PAC-3_run_2.png" ]
+expect "several cases: FILE-<id>-guarantee.png each" $? "$(ls "$tmp")"
+"$bin" rate examples/guarantees/back-pressure-turbine.json --plot "$tmp/bp.png" >/dev/null 2>&1
+expect "turbine guarantees plot, exit 0" $?
+[ "$(ls "$tmp" | grep -c '^bp-')" = 2 ] && ! ls "$tmp" | grep -q '^bp-.*guarantee'
+expect "a turbine's guarantee: no guarantee chart" $? "$(ls "$tmp")"
+
+# --report: a page after a case with a guarantee chart, and one for a file's test, judged or not.
+"$bin" rate "$tmp/own.json" "$p12" examples/guarantees/back-pressure-turbine.json --report "$tmp/g.pdf" >/dev/null 2>&1
+expect "--report with guarantees: exit 3" $(( $? == 3 ? 0 : 1 ))
+pdfinfo "$tmp/g.pdf" | grep -qE '^Pages: +10$'
+expect "--report: 1 + 1, 5 + 1, 2 pages" $? "$(pdfinfo "$tmp/g.pdf" | grep Pages)"
+/usr/bin/python3 - "$p12" "$tmp/far.json" <<'PY'
+import json, sys
+doc = json.load(open(sys.argv[1]))
+doc["guarantee"]["volume_flow"] = "600 m3/h"
+json.dump(doc, open(sys.argv[2], "w"))
+PY
+"$bin" rate "$tmp/far.json" --report "$tmp/far.pdf" --plot "$tmp/far.png" >/dev/null 2>&1
+expect "a guarantee not judged: exit 1" $(( $? == 1 ? 0 : 1 ))
+pdftotext -layout -f 6 -l 6 "$tmp/far.pdf" "$tmp/far.txt"
+grep -qF "Not judged" "$tmp/far.txt" && grep -qF "beyond the converted test flows" "$tmp/far.txt"
+expect "a test not judged: its page says why" $? "$(cat "$tmp/far.txt")"
+! ls "$tmp" | grep -q '^far-.*guarantee'
+expect "a test not judged: no guarantee chart" $? "$(ls "$tmp")"
+
 # A batch: one chart of the whole log, against the id column's timestamps; its 4 bad rows
 # give exit 1, the results are those without --plot.
 week=(examples/compressor-week-log.csv --case examples/compressor-week-log.template.json --quiet)

@@ -159,6 +159,53 @@ TEST_CASE("several points make a curve read at the guaranteed flow by straight l
   CHECK(res.verdict == Verdict::fail);
 }
 
+TEST_CASE("the curves a chart draws: the converted points, the reading at Q_G, the discharge pressure as a head") {
+  const double N = 150;
+  const std::vector<TestPoint> pts = {point("a", 100e3, 293.15, 270e3, 0.78, 2.6, N),
+                                      point("b", 100e3, 293.15, 250e3, 0.80, 3.0, N),
+                                      point("c", 100e3, 293.15, 220e3, 0.77, 3.4, N)};
+  const double q_b = *pts[1].rating.volume_flow, q_c = *pts[2].rating.volume_flow;
+  const double q_g = q_b + 0.25 * (q_c - q_b);
+  Guarantee g = base_guarantee(N, 100e3, 293.15, q_g);
+  g.value(Checked::outlet_pressure) = 2.4e5;
+  g.tolerance[static_cast<std::size_t>(Checked::outlet_pressure)] = machines::Tolerance{-2.0, 5.0};
+  g.value(Checked::efficiency_polytropic) = 0.78;
+  const GuaranteeResult res = machines::judge(g, pts);
+  REQUIRE(res.readings);
+  const machines::CurveReadings& rd = *res.readings;
+  CHECK(rd.guaranteed_flow == Approx(q_g).epsilon(1e-15));
+  CHECK_FALSE(rd.cross);
+  REQUIRE(rd.quantities.size() == 2);
+  const machines::CurveReading& head = rd.quantities[0];
+  const machines::CurveReading& eta = rd.quantities[1];
+  CHECK(head.key == "head.polytropic");
+  CHECK(eta.key == "efficiency.polytropic");
+  // The converted points at the test's own speed and inlet are the test points, ascending in flow.
+  REQUIRE(head.flow.size() == 3);
+  CHECK(head.flow[0] == Approx(*pts[0].rating.volume_flow).epsilon(1e-14));
+  CHECK(head.value[2] == Approx(perfect_gas_head(100e3, 293.15, 220e3, 0.77)).epsilon(1e-12));
+  CHECK(eta.value[1] == Approx(0.80).epsilon(1e-14));
+  // Read at Q_G by straight lines: as the converted values of the result.
+  const double eta_read = 0.80 + 0.25 * (0.77 - 0.80);
+  CHECK(head.read_flow == q_g);
+  CHECK(head.read_value == Approx(converted(res, "head.polytropic")).epsilon(1e-12));
+  CHECK(head.at(q_g) == Approx(head.read_value).epsilon(1e-15));
+  CHECK(eta.read_value == Approx(eta_read).epsilon(1e-14));
+  CHECK(*eta.guaranteed == 0.78);
+  CHECK(*eta.low == Approx(0.78).epsilon(1e-15));  // no tolerance given: zero below, open above
+  CHECK_FALSE(eta.high);
+  // The guaranteed 2.4 bar (-2 %, +5 %) as polytropic heads at the read efficiency, closed form above.
+  CHECK(head.check == Checked::outlet_pressure);
+  CHECK(*head.guaranteed == Approx(perfect_gas_head(100e3, 293.15, 2.4e5, eta_read)).epsilon(1e-12));
+  CHECK(*head.low == Approx(perfect_gas_head(100e3, 293.15, 2.4e5 * 0.98, eta_read)).epsilon(1e-12));
+  CHECK(*head.high == Approx(perfect_gas_head(100e3, 293.15, 2.4e5 * 1.05, eta_read)).epsilon(1e-12));
+  // So the head read at Q_G lies within the head band exactly as the discharge pressure within its tolerance.
+  const machines::Check& p2 = check(res, Checked::outlet_pressure);
+  CHECK(p2.verdict == Verdict::pass);
+  CHECK(head.read_value > *head.low);
+  CHECK(head.read_value < *head.high);
+}
+
 TEST_CASE("similarity: volume ratio, flow coefficient and machine Mach number with their limits") {
   const double Nt = 150, Ng = 155, D = 0.4;
   const TestPoint t = point("T", 100e3, 293.15, 250e3, 0.80, 3.0, Nt, D);

@@ -164,6 +164,41 @@ TEST_CASE("a pump curve from an exact quadratic, judged in grades 1B and 2B") {
   CHECK(b2.verdict == Verdict::pass);
 }
 
+TEST_CASE("the curves a chart draws: H(Q) with the tolerance cross, eta(Q) read on the line through the origin") {
+  const GuaranteeResult b1 = machines::judge(guarantee("1B"), test_points());
+  REQUIRE(b1.readings);
+  const machines::CurveReadings& rd = *b1.readings;
+  CHECK(rd.guaranteed_flow == kQg);
+  // Grade 1B: +-5 % flow at H_G, +-3 % head at Q_G (ISO 9906:2012 Table 8, from memory).
+  CHECK(rd.cross);
+  CHECK(*rd.flow_low == Approx(0.95 * kQg).epsilon(1e-15));
+  CHECK(*rd.flow_high == Approx(1.05 * kQg).epsilon(1e-15));
+  REQUIRE(rd.quantities.size() == 2);
+  const machines::CurveReading& h = rd.quantities[0];
+  CHECK(h.key == "head_height");
+  CHECK(*h.guaranteed == kHg);
+  CHECK(*h.low == Approx(0.97 * kHg).epsilon(1e-15));
+  CHECK(*h.high == Approx(1.03 * kHg).epsilon(1e-15));
+  CHECK(h.check == Checked::head_height);
+  // The translated points (Q_t r, H_t r^2) and the least-squares curve through them, which
+  // is the translated quadratic itself.
+  REQUIRE(h.flow.size() == 5);
+  CHECK(h.flow[0] == Approx(0.080 * kR).epsilon(1e-12));
+  CHECK(h.value[0] == Approx(test_head(0.080) * kR * kR).epsilon(1e-12));
+  for (double q : {0.07, 0.1, 0.13, 0.15}) CHECK(h.at(q) == Approx(head(q)).epsilon(1e-10));
+  CHECK(h.read_flow == kQg);
+  CHECK(h.read_value == Approx(head(kQg)).epsilon(1e-10));
+  // Efficiency read where H(Q) meets H = (H_G/Q_G) Q.
+  const machines::CurveReading& eta = rd.quantities[1];
+  const double q_line = larger_root(kC, kB * kR - kHg / kQg, kA * kR * kR);
+  CHECK(eta.key == "pump_efficiency");
+  CHECK(eta.read_flow == Approx(q_line).epsilon(1e-10));
+  CHECK(eta.read_value == Approx(efficiency(q_line)).epsilon(1e-9));
+  CHECK(eta.at(0.1) == Approx(efficiency(0.1)).epsilon(1e-9));
+  CHECK(*eta.low == Approx(0.97 * kEtaG).epsilon(1e-15));  // grade 1B: eta >= eta_G (1 - 3 %)
+  CHECK_FALSE(eta.high);
+}
+
 TEST_CASE("pump refusals: one point draws no curve; no flow") {
   const std::vector<TestPoint> pts = test_points();
   CHECK(std::string(test::error_of([&] { machines::judge(guarantee("2B"), std::span(pts.data(), 1)); }).what()) ==

@@ -21,8 +21,12 @@ inline constexpr Colour kOutletColour{0xd5, 0x5e, 0x00};     // vermillion: actu
 inline constexpr Colour kIsentropicColour{0x00, 0x9e, 0x73}; // bluish green: isentropic outlet
 inline constexpr Colour kPathColour{0xcc, 0x79, 0xa7};       // reddish purple: polytropic path
 inline constexpr Colour kBandColour{0xa6, 0xcf, 0xe8};       // a light blue for bands
+// Verdicts, each also with its own mark (verdict_mark in guarantee_chart.hpp) and word.
+inline constexpr Colour kPassColour{0x00, 0x9e, 0x73};          // bluish green
+inline constexpr Colour kInconclusiveColour{0xe6, 0x9f, 0x00};  // orange
+inline constexpr Colour kFailColour{0xd5, 0x5e, 0x00};          // vermillion
 
-// Marks, each a filled shape with a white rim.
-enum class Mark { circle, square, diamond, triangle };
+// Marks, each a filled shape with a white rim; cross is an X.
+enum class Mark { circle, square, diamond, triangle, cross };
 
 }  // namespace shaftwork::charts

@@ -23,6 +23,8 @@ void set_colour(cairo_t* cr, Colour c);
 void stroke_line(cairo_t* cr, const std::vector<Point>& points, Colour c, double width, Dash dash = Dash::solid);
 // A mark centred on `at`, `size` points across.
 void draw_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size = 9);
+// The outline of a mark alone, `width` points wide, nothing filled (what lies under it shows).
+void draw_open_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size, double width);
 // Text with its baseline at `at.y`; returns its width in points.
 double draw_text(cairo_t* cr, Point at, const std::string& text, double size, Align align = Align::left,
                  bool bold = false, Colour c = kInk);

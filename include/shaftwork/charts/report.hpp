@@ -3,7 +3,11 @@
 // A page holds the case's id and what it is, its given values as written, the rated table
 // (the lines `rate` prints for it, warnings apart), its warnings, its process chart, the
 // property model and sources the numbers rest on, and the caution. A case that could not be
-// rated gets its page too, with its error in place of the table and chart.
+// rated gets its page too, with its error in place of the table and chart. A guarantee
+// judged on a curve (charts/guarantee_chart.hpp) gets a page of its own after its case's:
+// the guarantee's table, its chart across the page, its method and the caution; a file's
+// test gets one after the file's cases (with its table, or why it was not judged, and its
+// chart when it has one).
 //
 // The page is A4 (ISO 216: 210 x 297 mm, 595.28 x 841.89 pt) with margins that also fit US
 // Letter (8.5 x 11 in, 612 x 792 pt) printed at actual size: Letter is 49.9 pt shorter, so
@@ -44,6 +48,8 @@ struct ReportChartPlace {
 };
 inline constexpr double kReportChartScale = 0.62;
 ReportChartPlace report_chart_place();
+// Where a guarantee page puts its guarantee chart: across the body's width.
+ReportChartPlace report_guarantee_chart_place();
 
 // One case's page, drawn on `cr` in points of an A4 page.
 void draw_report_page(cairo_t* cr, const io::CaseOutcome& outcome, const ReportOptions& options);

@@ -108,6 +108,11 @@ void write_test_table(std::ostream& out, const TestOutcome& test, const TableOpt
 // The guarantee block of a table: one line per check (measured, converted, guaranteed,
 // tolerance, deviation, verdict), then the similarity lines; in the units of `units`.
 void write_guarantee_table(std::ostream& out, const machines::GuaranteeResult& g, const DisplayUnits& units);
+// How the guarantee's table (and chart) write a checked value and a tolerance: fractions to
+// 4 decimals, temperatures to 2, the rest to 5 significant digits; "-2 to +4 %", ">= -3 %",
+// "<= +4 %", "any".
+Precision guarantee_precision(units::Dimension d);
+std::string tolerance_text(const machines::Tolerance& t);
 
 // The CSV of cases: a header row of dotted keys with units in brackets, and one row per
 // case (each with its CRLF line end); with options.uncertainty_columns, a column

@@ -174,6 +174,40 @@ struct ConvertedPoint {
   std::vector<NamedValue> values;
 };
 
+// One quantity of the converted points against flow, as judge() read it: what a chart of
+// the guarantee draws (charts/guarantee_chart.hpp) without converting anything again. SI;
+// flows are the guarantee's volume flows (a pump's Q, a compressor's inlet volume flow).
+struct CurveReading {
+  std::string key;  // "head_height", "pump_efficiency", "head.polytropic", "efficiency.polytropic", ...
+  units::Dimension dimension = units::Dimension::fraction;
+  std::vector<double> flow, value;  // the converted points, flow ascending
+  // The curve through them: least squares y = c0 + c1 Q + c2 Q^2 (pumps), or, when empty,
+  // straight lines between neighbours, the end lines extended (compressors; one point: flat).
+  std::vector<double> coefficients;
+  // Where the judge read the curve and what it read there (the value its check compared).
+  double read_flow = 0, read_value = 0;
+  // The guarantee in this quantity, when it guarantees one: its value at the guaranteed
+  // flow, and its tolerance as values of this quantity (an empty bound is open), and the
+  // check that decided it. A compressor guaranteeing its discharge pressure (and no head)
+  // has that pressure shown here as the polytropic head it asks of the guarantee inlet
+  // with the efficiency read at Q_G (check: outlet_pressure), so that the head read at Q_G
+  // lies above it exactly when the converted discharge pressure lies above the guaranteed.
+  std::optional<double> guaranteed, low, high;
+  std::optional<Checked> check;
+
+  // The curve at flow q [m3/s].
+  double at(double q) const;
+};
+
+struct CurveReadings {
+  double guaranteed_flow = 0;  // Q_G, m3/s
+  // Pumps with a guaranteed head: the tolerance cross's flow bar at H_G, Q_G (1 + t_Q)
+  // (an empty bound is open); the head reading carries the head bar at Q_G.
+  std::optional<double> flow_low, flow_high;
+  bool cross = false;
+  std::vector<CurveReading> quantities;  // the head first, then the efficiency
+};
+
 struct GuaranteeResult {
   MachineKind machine = MachineKind::compressor;
   Verdict verdict = Verdict::pass;
@@ -185,7 +219,12 @@ struct GuaranteeResult {
   std::vector<ConvertedPoint> points;
   std::string nearest_point;  // the id whose measured values the checks show
   std::vector<std::string> warnings;
+  // The curves the checks were read on (pumps and compressors; turbines: none).
+  std::optional<CurveReadings> readings;
 };
+
+// The check of q among r's, or nullptr.
+const Check* find_check(const GuaranteeResult& r, Checked q);
 
 // Converts `points` (rated, all of one machine kind) to `guarantee` and judges it.
 // Throws bad_input with a message for the user when the guarantee cannot be judged: no
