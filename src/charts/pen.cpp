@@ -123,6 +123,32 @@ std::vector<std::string> wrap_text(cairo_t* cr, const std::string& text, double 
   return lines;
 }
 
+FittedText fit_text(cairo_t* cr, const std::string& text, double size, double smallest, double width, bool bold) {
+  FittedText fitted{text, size};
+  while (fitted.size > smallest && text_width(cr, text, fitted.size, bold) > width) fitted.size -= 0.5;
+  if (text_width(cr, text, fitted.size, bold) <= width) return fitted;
+  // Whole UTF-8 characters taken out of the middle, a side at a time, until the two ends fit
+  // around an ellipsis.
+  const auto starts_character = [&](std::size_t i) {
+    return i == 0 || i >= text.size() || (static_cast<unsigned char>(text[i]) & 0xC0) != 0x80;
+  };
+  std::size_t head = text.size() / 2, tail = head;  // text[0, head) ... text[tail, end)
+  while (!starts_character(head)) --head;
+  tail = head;
+  for (bool from_head = true; head > 0 || tail < text.size(); from_head = !from_head) {
+    if ((from_head && head > 0) || tail >= text.size()) {
+      do --head;
+      while (!starts_character(head));
+    } else {
+      do ++tail;
+      while (!starts_character(tail));
+    }
+    fitted.text = text.substr(0, head) + "\u2026" + text.substr(tail);
+    if (text_width(cr, fitted.text, fitted.size, bold) <= width) break;
+  }
+  return fitted;
+}
+
 void draw_mono_text(cairo_t* cr, Point at, const std::string& text, double size) {
   cairo_save(cr);
   select_font(cr, size, false, true);

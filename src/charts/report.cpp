@@ -155,8 +155,10 @@ void draw_middle(cairo_t* cr, const Middle& m, double top, double bottom) {
 void draw_header(cairo_t* cr, const std::string& title, const std::string& what) {
   draw_text(cr, {kBody.x, kBody.y}, "Test report", 8, Align::left, false, kFaint);
   draw_text(cr, {kBody.x + kBody.width, kBody.y}, "shaftwork 0.1.0", 8, Align::right, false, kFaint);
-  draw_text(cr, {kBody.x, kBody.y + 20}, title, 14, Align::left, true);
-  draw_text(cr, {kBody.x, kBody.y + 36}, what, 9);
+  const FittedText big = fit_text(cr, title, 14, 10, kBody.width, true);
+  draw_text(cr, {kBody.x, kBody.y + 20}, big.text, big.size, Align::left, true);
+  const FittedText small = fit_text(cr, what, 9, 7, kBody.width);
+  draw_text(cr, {kBody.x, kBody.y + 36}, small.text, small.size);
   stroke_line(cr, {{kBody.x, kBody.y + 44}, {kBody.x + kBody.width, kBody.y + 44}}, kFaint, 0.6);
 }
 

@@ -68,3 +68,38 @@ TEST_CASE("a report page holds the case, its table, its chart at the scaled mapp
     CHECK(text.find(words) != std::string::npos);
   }
 }
+
+TEST_CASE("a long file name and id keep inside the page: shrunk, then shortened in the middle") {
+  io::FluidFactory fluids;
+  const std::string source = std::string(SHAFTWORK_SOURCE_DIR) + "/examples/plant-air-compressor.json";
+  auto outcomes = io::rate_document(io::parse_json_strict(io::read_text_file(source), source), source, fluids);
+  REQUIRE(!outcomes.empty());
+  io::CaseOutcome o = outcomes[0];
+  o.origin = "/records/plant-tests/a-very-long-directory-name-for-the-test-records-of-the-year-2026/compressors/"
+             "first-stage/plant-air-compressor.json";
+  o.id = "PAC-3 first stage, acceptance test after the overhaul of March, point 1 of 5";
+  const fs::path path = scratch() / "long-names.pdf";
+  {
+    FileSink sink(path);
+    charts::Document doc(charts::ImageFormat::pdf, sink, charts::kA4Width, charts::kA4Height);
+    charts::draw_report_page(doc.begin_page(), o, {});
+    doc.end_page();
+    doc.finish();
+  }
+  const std::string png = path.string() + ".raster";
+  REQUIRE(std::system(("pdftoppm -r 108 -png -singlefile '" + path.string() + "' '" + png + "'").c_str()) == 0);
+  const Raster raster(png + ".png");
+  // No ink within 20 pt of the left or right edge (the header's lines ran past it).
+  for (int y = 0; y < raster.height(); y += 2) {
+    for (int x = 0; x < 30; ++x) {
+      INFO("ink at pixel " << x << " or " << raster.width() - 1 - x << ", " << y);
+      REQUIRE(near(raster.at(x + 0.5, y + 0.5), {255, 255, 255}));
+      REQUIRE(near(raster.at(raster.width() - x - 0.5, y + 0.5), {255, 255, 255}));
+    }
+  }
+  const std::string text = run("pdftotext -raw -f 1 -l 1 '" + path.string() + "' -");
+  CHECK(text.find("compressor on air, from /records/plant-tests/") != std::string::npos);  // the start kept
+  CHECK(text.find("\u2026") != std::string::npos);                                     // the middle cut
+  CHECK(text.find("first-stage/plant-air-compressor.json") != std::string::npos);       // the file name kept
+  CHECK(text.find(o.id) != std::string::npos);  // the id shrunk, whole
+}

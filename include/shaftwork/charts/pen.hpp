@@ -34,6 +34,15 @@ void draw_mono_text(cairo_t* cr, Point at, const std::string& text, double size)
 double text_width(cairo_t* cr, const std::string& text, double size, bool bold = false, bool mono = false);
 // `text` broken at spaces into lines no wider than `width` (a word wider than that stands alone).
 std::vector<std::string> wrap_text(cairo_t* cr, const std::string& text, double size, double width);
+// `text` made to fit `width`: its size lowered in half points down to `smallest`, then, if
+// still too wide, its middle replaced by an ellipsis (a line keeps its start and a path its
+// file name).
+struct FittedText {
+  std::string text;
+  double size;
+};
+FittedText fit_text(cairo_t* cr, const std::string& text, double size, double smallest, double width,
+                    bool bold = false);
 // The same turned a quarter to the left (an axis title), centred on `at`.
 void draw_vertical_text(cairo_t* cr, Point at, const std::string& text, double size);
 
