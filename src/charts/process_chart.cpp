@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <tuple>
 
 #include <fmt/format.h>
 
@@ -122,16 +123,25 @@ void set_window(ProcessChart& chart, const std::vector<Point>& points) {
   pad_range(chart.y_low, chart.y_high, 0.15);
 }
 
-void add_isobars(const fluids::FluidModel& fluid, const machines::Rating& r, const Converter& conv,
-                 const io::DisplayUnits& du, ProcessChart& chart) {
+// An isobar's pressure as the case wrote it ("2.10 barg"), unless --units asks for its
+// system or the pressure was solved for; then in the case's unit for pressures.
+std::string pressure_label(const io::CaseInput& input, machines::Input key, double p, bool forced,
+                           const io::DisplayUnits& du) {
+  const io::GivenValue* given = input.find(key);
+  if (given != nullptr && !forced && !given->unit.empty()) return given->written;
+  return du.text(p, Dimension::pressure, io::Precision{io::Precision::Kind::significant, 4});
+}
+
+void add_isobars(const fluids::FluidModel& fluid, const io::CaseInput& input, bool forced, const machines::Rating& r,
+                 const Converter& conv, const io::DisplayUnits& du, ProcessChart& chart) {
   // The entropy window back in SI: the isobars span it.
   // (Entropy units are plain factors: no offset.)
   const double per_si = units::from_si(1.0, conv.s_unit, Dimension::specific_entropy);
   const double s_low = chart.x_low / per_si;
   const double s_high = chart.x_high / per_si;
-  const io::Precision precision{io::Precision::Kind::significant, 4};
-  for (const auto& [p, name] : {std::pair{r.inlet.pressure, "p1"}, std::pair{r.outlet.pressure, "p2"}}) {
-    Curve c{{}, fmt::format("{} = {}", name, du.text(p, Dimension::pressure, precision))};
+  for (const auto& [p, name, key] : {std::tuple{r.inlet.pressure, "p1", machines::Input::inlet_pressure},
+                                     std::tuple{r.outlet.pressure, "p2", machines::Input::outlet_pressure}}) {
+    Curve c{{}, fmt::format("{} = {}", name, pressure_label(input, key, p, forced, du))};
     for (const fluids::State& st : isobar(fluid, p, s_low, s_high)) c.points.push_back(conv.of(st));
     chart.isobars.push_back(std::move(c));
   }
@@ -169,7 +179,7 @@ ProcessChart make_process_chart(const io::CaseOutcome& o, const ProcessChartOpti
   std::vector<Point> process = chart.path.points;
   process.insert(process.end(), {chart.inlet, chart.outlet, chart.outlet_isentropic});
   set_window(chart, process);
-  add_isobars(fluid, r, conv, du, chart);
+  add_isobars(fluid, *o.input, options.system_forced, r, conv, du, chart);
   if (fluid.fluid_kind() == fluids::FluidKind::water_steam) add_steam_lines(fluid, conv, chart);
   add_numbers(o, du, chart);
   return chart;

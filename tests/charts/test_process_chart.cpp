@@ -64,8 +64,9 @@ TEST_CASE("the process chart's points are the rated states in the case's units")
   CHECK(chart.x_title == "specific entropy s [kJ/(kg K)]");
   CHECK(chart.y_title == "specific enthalpy h [kJ/kg]");
   CHECK(chart.isobars.size() == 2);
-  // One unit a dimension: the case's first pressure unit, kPag (-1.8 kPag in, 2.10 barg out).
-  CHECK(chart.isobars[1].label == "p2 = 210 kPag");
+  // Each isobar as the case wrote its pressure (-1.8 kPag in, 2.10 barg out).
+  CHECK(chart.isobars[0].label == "p1 = -1.8 kPag");
+  CHECK(chart.isobars[1].label == "p2 = 2.10 barg");
   CHECK(chart.saturation.points.empty());
   CHECK(chart.numbers[0] == std::pair<std::string, std::string>{"isentropic efficiency", "0.7779"});
 }
