@@ -120,7 +120,10 @@ void set_windows(GuaranteeChart& chart) {
   pad_range(chart.x_low, chart.x_high, 0.06);
 }
 
-GuaranteeChart chart_of(const GuaranteeResult& g, const io::DisplayUnits& du) {
+// Everything on the chart is at the guarantee: its gauge pressures on the guarantee's site
+// barometer.
+GuaranteeChart chart_of(const GuaranteeResult& g, const io::DisplayUnits& test_units) {
+  const io::DisplayUnits du = test_units.on_barometer(g.barometer);
   const Converter conv{du};
   const machines::CurveReadings& rd = *g.readings;
   GuaranteeChart chart;

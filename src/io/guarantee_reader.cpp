@@ -75,6 +75,7 @@ class Reader {
   }
 
   const json& object() const { return object_; }
+  double barometer() const { return context_.barometric_pressure.value_or(units::kStandardAtmosphere); }
   bool used_default_barometer() const { return notes_.used_default_barometer; }
 
  private:
@@ -204,6 +205,7 @@ machines::Guarantee read_guarantee(const json& object, MachineKind machine, Flui
   }
   Reader r(object, barometer);
   machines::Guarantee g;
+  g.barometer = r.barometer();
   g.speed = r.positive("speed", Dimension::rotational_speed);
   if (const json* inlet = Reader::member(object, "inlet", {"pressure", "temperature"})) {
     g.inlet_pressure = r.positive(inlet->contains("pressure") ? &(*inlet)["pressure"] : nullptr, Dimension::pressure,

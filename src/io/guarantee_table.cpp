@@ -25,7 +25,9 @@ void line(std::ostream& out, std::string text) {
   out << escape_control(text) << '\n';
 }
 
-void check_line(std::ostream& out, const Check& c, const DisplayUnits& units) {
+// A check's line: the measured value as the test read it, the converted and guaranteed ones
+// at the guarantee (its gauge pressures on its own site barometer, `at_guarantee`).
+void check_line(std::ostream& out, const Check& c, const DisplayUnits& units, const DisplayUnits& at_guarantee) {
   const machines::CheckedSpec& spec = machines::checked_spec(c.quantity);
   std::string tolerance = tolerance_text(c.tolerance);
   if (c.tolerance_from == machines::ToleranceFrom::none_given) tolerance += " (none given)";
@@ -33,8 +35,9 @@ void check_line(std::ostream& out, const Check& c, const DisplayUnits& units) {
   if (c.uncertainty_percent) deviation += fmt::format(" (U {:.2f} %)", *c.uncertainty_percent);
   line(out, fmt::format("    {:<{}}{:<{}}{:<{}}{:<{}}{:<{}}{:<{}}{}", spec.label, kLabelWidth,
                         value_text(c.measured, spec.dimension, units), kValueWidth,
-                        value_text(c.converted, spec.dimension, units), kValueWidth,
-                        units.text(c.guaranteed, spec.dimension, guarantee_precision(spec.dimension)), kValueWidth, tolerance,
+                        value_text(c.converted, spec.dimension, at_guarantee), kValueWidth,
+                        at_guarantee.text(c.guaranteed, spec.dimension, guarantee_precision(spec.dimension)), kValueWidth,
+                        tolerance,
                         kValueWidth + 6, deviation, kValueWidth, machines::verdict_name(c.verdict)));
   if (!c.note.empty()) line(out, fmt::format("    {:<{}}{}", "", kLabelWidth, c.note));
 }
@@ -67,6 +70,7 @@ std::string tolerance_text(const machines::Tolerance& t) {
 }
 
 void write_guarantee_table(std::ostream& out, const machines::GuaranteeResult& g, const DisplayUnits& units) {
+  const DisplayUnits at_guarantee = units.on_barometer(g.barometer);
   line(out, fmt::format("  guarantee: {}", machines::verdict_name(g.verdict)));
   line(out, fmt::format("    {}", g.method));
   // Where the guarantee point came out: its flow and outlet state.
@@ -77,13 +81,13 @@ void write_guarantee_table(std::ostream& out, const machines::GuaranteeResult& g
                                    : v.key == "outlet.quality"     ? "outlet quality"
                                                                    : "";
     if (label.empty()) continue;
-    at += fmt::format("{}{} {}", at.empty() ? "" : ", ", label, units.text(v.value, v.dimension, guarantee_precision(v.dimension)));
+    at += fmt::format("{}{} {}", at.empty() ? "" : ", ", label, at_guarantee.text(v.value, v.dimension, guarantee_precision(v.dimension)));
   }
   if (!at.empty()) line(out, fmt::format("    at the guarantee: {}", at));
   line(out, fmt::format("    {:<{}}{:<{}}{:<{}}{:<{}}{:<{}}{:<{}}{}", "quantity", kLabelWidth, "measured", kValueWidth,
                         "converted", kValueWidth, "guaranteed", kValueWidth, "tolerance", kValueWidth + 6, "deviation",
                         kValueWidth, "verdict"));
-  for (const Check& c : g.checks) check_line(out, c, units);
+  for (const Check& c : g.checks) check_line(out, c, units, at_guarantee);
   line(out, fmt::format("    measured: test point \"{}\" (nearest the guaranteed flow)", g.nearest_point));
   if (!g.similarity.empty()) {
     line(out, fmt::format("    {:<{}}{:<{}}{:<{}}{:<{}}{:<{}}{}", "similarity", kLabelWidth, "test point",

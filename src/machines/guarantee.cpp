@@ -281,6 +281,7 @@ GuaranteeResult judge(const Guarantee& g, std::span<const TestPoint> points) {
                                                    : judge_turbine(g, points);
   r.machine = m;
   r.grade = g.grade;
+  r.barometer = g.barometer;
   if (r.checks.empty()) {
     refuse(fmt::format("nothing to check: a {} guarantee needs a guaranteed {}", machine_name(m),
                        m == MachineKind::compressor ? "outlet.pressure, head.polytropic, efficiency or power"

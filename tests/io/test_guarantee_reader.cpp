@@ -222,3 +222,28 @@ TEST_CASE("csv: a pump's guaranteed head brings the flow's columns (the toleranc
   CHECK(has(machines::Checked::power));
   CHECK(columns.checks.size() == 4);
 }
+
+TEST_CASE("table: a guarantee's gauge pressures read on its own site barometer, the test's on the test's") {
+  // The test reads 2.5 bar(g) on a 100.3 kPa barometer; the guarantee states 2.4 barg on its
+  // site's 99.1 kPa: 339.1 kPa absolute, shown as the 240 kPag it was written as, whatever
+  // barometer the test had (the deviation is taken on absolute pressures either way).
+  io::FluidFactory fluids;
+  json a = air_case("a", 2.5, 3.0);
+  a["site"] = {{"barometric_pressure", "100.3 kPa"}};
+  a["inlet"]["pressure"] = "0 kPag";  // the table's pressures in kPag
+  a["outlet"]["pressure"] = "2.5 barg";
+  json doc = {{"cases", {a}},
+              {"guarantee", {{"speed", "9000 rpm"}, {"mass_flow", "3 kg/s"}, {"outlet", {{"pressure", "2.4 barg"}}},
+                             {"site", {{"barometric_pressure", "99.1 kPa"}}}}}};
+  const io::RatedFile rated = io::rate_file(doc, "site.json", fluids);
+  REQUIRE(rated.test);
+  REQUIRE(rated.test->result);
+  const machines::Check& p2 = rated.test->result->checks.at(0);
+  CHECK(p2.guaranteed == Approx(339100).epsilon(1e-12));
+  CHECK(rated.test->result->barometer == 99100);
+  std::ostringstream table;
+  io::write_results(table, io::ResultFormat::table, rated.cases, {}, {*rated.test});
+  // measured 2.5 barg = 250 kPag on the test's barometer; converted (the same point, at equal
+  // speed and inlet) 350.3 kPa absolute = 251.2 kPag on the guarantee's.
+  CHECK(table.str().find("discharge pressure      250 kPag        251.2 kPag      240 kPag") != std::string::npos);
+}

@@ -32,6 +32,13 @@ class DisplayUnits {
 
   std::string_view unit(units::Dimension d) const { return units_[static_cast<std::size_t>(d)]; }
   double barometer() const { return barometer_; }
+  // The same units with gauge pressures read against another barometer [Pa] (a guarantee's
+  // site).
+  DisplayUnits on_barometer(double barometer) const {
+    DisplayUnits other = *this;
+    other.barometer_ = barometer;
+    return other;
+  }
 
   // "217.43 degC", "0.7779", "1.5077 kg/s": the value in this case's unit for its
   // dimension, at the row's precision.

@@ -110,6 +110,7 @@ struct Guarantee {
   std::array<std::optional<double>, kCheckedCount> guaranteed;
   std::array<std::optional<Tolerance>, kCheckedCount> tolerance;  // by Checked; empty: none given
   std::optional<std::string> grade;                            // pumps: an ISO 9906 grade instead
+  double barometer = 101325.0;  // Pa: the site barometer the guarantee's gauge pressures were read against
   bool flow_given() const { return mass_flow || volume_flow || standard_volume_flow; }
   std::optional<double>& value(Checked q) { return guaranteed[static_cast<std::size_t>(q)]; }
   const std::optional<double>& value(Checked q) const { return guaranteed[static_cast<std::size_t>(q)]; }
@@ -213,6 +214,7 @@ struct GuaranteeResult {
   Verdict verdict = Verdict::pass;
   std::string method;  // one line: how the points were converted and read
   std::optional<std::string> grade;  // the ISO 9906 grade the tolerances came from
+  double barometer = 101325.0;  // Pa: the guarantee's site barometer, for its values shown as gauge pressures
   std::vector<Check> checks;
   std::vector<SimilarityCheck> similarity;
   std::vector<NamedValue> converted;  // the guarantee point as read off the converted curve
