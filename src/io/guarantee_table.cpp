@@ -76,7 +76,8 @@ void write_guarantee_table(std::ostream& out, const machines::GuaranteeResult& g
   // Where the guarantee point came out: its flow and outlet state.
   std::string at;
   for (const machines::NamedValue& v : g.converted) {
-    const std::string_view label = v.key == "mass_flow"            ? "mass flow"
+    const std::string_view label = v.key == "volume_flow"          ? "inlet volume flow"
+                                   : v.key == "mass_flow"          ? "mass flow"
                                    : v.key == "outlet.temperature" ? "outlet temperature"
                                    : v.key == "outlet.quality"     ? "outlet quality"
                                                                    : "";

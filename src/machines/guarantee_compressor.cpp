@@ -234,10 +234,9 @@ GuaranteeResult judge_compressor(const Guarantee& g, std::span<const TestPoint> 
   const std::size_t nearest = nearest_index(x, q_g);
   GuaranteeResult r;
   r.method = fmt::format("fan laws at equal flow coefficient, head coefficient and polytropic efficiency; {} read at "
-                         "the guaranteed inlet volume flow {}",
+                         "the guaranteed inlet volume flow",
                          conv.size() == 1 ? "the converted point's head and efficiency"
-                                          : fmt::format("the curve through {} converted points", conv.size()),
-                         show_volume_flow(q_g));
+                                          : fmt::format("the curve through {} converted points", conv.size()));
   for (Checked q : {Checked::outlet_pressure, Checked::head_polytropic, Checked::efficiency_polytropic,
                     Checked::efficiency_isentropic, Checked::power}) {
     if (!g.value(q)) continue;
