@@ -120,6 +120,58 @@ inline CubicRoots cubic_roots(double A, double B, const CubicConstants& k) {
   return roots;
 }
 
+// True when the cubic has one root Z > B and that root is proven to lie within [lo, hi]
+// (lo above 1/3, on the gas side): it is then the root stable_root() returns, found without
+// the closed form's acos, cos and cbrt. False when that is not proven (another root may lie
+// above B, the root lies outside [lo, hi] or too close to an end to tell); the caller then
+// solves with cubic_roots(). For f(Z) = Z^3 + c2 Z^2 + c1 Z + c0 (coefficients as there):
+//  - Newton's method gives z, from the virial estimate Z = 1 + B - A held within [lo, hi]
+//    (or from hi where f falls there): f is convex there, so when the largest root lies in
+//    [lo, hi] the steps reach it from above after at most one step;
+//  - f(z - d) < 0 < f(z + d), each beyond the rounding of f, brackets a root; f is convex
+//    beyond its inflection point -c2/3, so with z + d past it and f'(z + d) > 0, f rises
+//    beyond z + d and the bracket holds the largest root r3;
+//  - the other two roots have the sum -c2 - r3 and the product -c0/r3 (Vieta). Both above
+//    B needs a sum above 2 B, a positive product, and real roots (sum^2 >= 4 product); the
+//    bracket bounds the sum and the product, and any of the three failing proves r3 the
+//    only root above B.
+inline bool only_root_within(double A, double B, const CubicConstants& k, double lo, double hi) {
+  if (!(std::isfinite(A) && B > 0 && lo > 1.0 / 3)) return false;  // three roots in [lo, hi] would sum above 1
+  const double u = k.d1 + k.d2;
+  const double w = k.d1 * k.d2;
+  const double c2 = (u - 1) * B - 1;
+  const double c1 = A + w * B * B - u * B - u * B * B;
+  const double c0 = -(A * B + w * B * B + w * B * B * B);
+  const auto f = [&](double z) { return ((z + c2) * z + c1) * z + c0; };
+  const auto df = [&](double z) { return (3 * z + 2 * c2) * z + c1; };
+  // A bound on the rounding error of f(z) near z ~ 1 (a few ulps of its largest term).
+  const auto rounding = [&](double z) {
+    const double a = std::fabs(z);
+    return 1e-15 * (((a + std::fabs(c2)) * a + std::fabs(c1)) * a + std::fabs(c0));
+  };
+  double z = std::clamp(1 + B - A, lo, hi);
+  if (!(df(z) > 0)) z = hi;
+  for (int i = 0;; ++i) {
+    const double slope = df(z);
+    if (!(slope > 0) || i == 16) return false;
+    const double step = f(z) / slope;
+    z -= step;
+    if (std::fabs(step) <= 1e-7) break;  // then z is off by about step^2, far inside the bracket
+  }
+  constexpr double kHalfWidth = 1e-9;
+  const double zl = z - kHalfWidth;
+  const double zu = z + kHalfWidth;
+  if (!(zl >= lo && zu <= hi && zu > -c2 / 3 && df(zu) > 0)) return false;
+  if (!(f(zl) < -rounding(zl) && f(zu) > rounding(zu))) return false;
+  // The other two roots: sum below -c2 - zl, product below -c0/zl and above -c0/zu.
+  constexpr double kSlack = 1e-12;  // covers the rounding of these few operations
+  const double sum_high = -c2 - zl;
+  if (sum_high + kSlack <= 2 * B || -c0 <= 0) return true;
+  const double sum_low = -c2 - zu;
+  const double sum_squared = std::max(sum_low * sum_low, sum_high * sum_high);
+  return sum_squared * (1 + kSlack) + kSlack * kSlack < 4 * (-c0 / zu);
+}
+
 // a(T) and its first two temperature derivatives [Pa m6/mol2, per K, per K^2].
 struct Attraction {
   double a;

@@ -113,6 +113,10 @@ std::optional<double> NasaPolynomialGas::estimated_compressibility(double p, dou
   return std::isfinite(z) ? std::optional<double>(z) : std::nullopt;
 }
 
+bool NasaPolynomialGas::estimated_compressibility_within(double p, double T, double tolerance) const {
+  return impl_->z_estimate && impl_->z_estimate->proven_within(p, T, tolerance);
+}
+
 std::vector<std::pair<std::string, double>> NasaPolynomialGas::mole_fractions() const {
   return impl_->d.mole_fractions;
 }

@@ -254,6 +254,8 @@ constexpr double kIdealGasWarningPressure = 1.0e6;  // Pa
 std::string ideal_gas_warning(const Problem& problem, const Rating& r) {
   if (problem.fluid.fluid_kind() != fluids::FluidKind::ideal_gas) return {};
   for (const State* s : {&r.inlet, &r.outlet}) {
+    // The cheap proof first; the estimate itself (a cubic's roots) where it does not settle it.
+    if (problem.fluid.estimated_compressibility_within(s->pressure, s->temperature, kIdealGasZTolerance)) continue;
     const auto z = problem.fluid.estimated_compressibility(s->pressure, s->temperature);
     if (!z) continue;
     if (std::fabs(1 - *z) <= kIdealGasZTolerance) continue;
