@@ -131,6 +131,8 @@ inline CubicRoots cubic_roots(double A, double B, const CubicConstants& k) {
 //  - f(z - d) < 0 < f(z + d), each beyond the rounding of f, brackets a root; f is convex
 //    beyond its inflection point -c2/3, so with z + d past it and f'(z + d) > 0, f rises
 //    beyond z + d and the bracket holds the largest root r3;
+//  - f(B) = -(1 + d1 + d2 + d1 d2) B^2 < 0 (for both equations), so the other two roots
+//    lie on the same side of B, or are complex;
 //  - the other two roots have the sum -c2 - r3 and the product -c0/r3 (Vieta). Both above
 //    B needs a sum above 2 B, a positive product, and real roots (sum^2 >= 4 product); the
 //    bracket bounds the sum and the product, and any of the three failing proves r3 the
@@ -161,15 +163,15 @@ inline bool only_root_within(double A, double B, const CubicConstants& k, double
   constexpr double kHalfWidth = 1e-9;
   const double zl = z - kHalfWidth;
   const double zu = z + kHalfWidth;
-  if (!(zl >= lo && zu <= hi && zu > -c2 / 3 && df(zu) > 0)) return false;
+  if (!(zl >= lo && zu <= hi && 3 * zu > -c2 && df(zu) > 0)) return false;
   if (!(f(zl) < -rounding(zl) && f(zu) > rounding(zu))) return false;
-  // The other two roots: sum below -c2 - zl, product below -c0/zl and above -c0/zu.
+  // The other two roots: sum between -c2 - zu and -c2 - zl, product above -c0/zu.
   constexpr double kSlack = 1e-12;  // covers the rounding of these few operations
   const double sum_high = -c2 - zl;
   if (sum_high + kSlack <= 2 * B || -c0 <= 0) return true;
   const double sum_low = -c2 - zu;
   const double sum_squared = std::max(sum_low * sum_low, sum_high * sum_high);
-  return sum_squared * (1 + kSlack) + kSlack * kSlack < 4 * (-c0 / zu);
+  return (sum_squared * (1 + kSlack) + kSlack * kSlack) * zu < 4 * -c0;  // zu > 0
 }
 
 // a(T) and its first two temperature derivatives [Pa m6/mol2, per K, per K^2].
