@@ -125,9 +125,11 @@ inline CubicRoots cubic_roots(double A, double B, const CubicConstants& k) {
 // the closed form's acos, cos and cbrt. False when that is not proven (another root may lie
 // above B, the root lies outside [lo, hi] or too close to an end to tell); the caller then
 // solves with cubic_roots(). For f(Z) = Z^3 + c2 Z^2 + c1 Z + c0 (coefficients as there):
-//  - Newton's method gives z, from the virial estimate Z = 1 + B - A held within [lo, hi]
-//    (or from hi where f falls there): f is convex there, so when the largest root lies in
-//    [lo, hi] the steps reach it from above after at most one step;
+//  - a root z near 1 is estimated from f's expansion about 1 to second order in A and B,
+//    Z = 1 + e, e = -f(1) (1 - A - (u - 2) B) - (2 + (u - 1) B) f(1)^2 (u = d1 + d2), which
+//    needs no division; where the proof below fails around it, Newton's method from it
+//    (held within [lo, hi], or from hi where f falls there) refines it and the proof is
+//    tried once more. f is convex there, so the steps reach a root in [lo, hi] from above;
 //  - f(z - d) < 0 < f(z + d), each beyond the rounding of f, brackets a root; f is convex
 //    beyond its inflection point -c2/3, so with z + d past it and f'(z + d) > 0, f rises
 //    beyond z + d and the bracket holds the largest root r3;
@@ -151,7 +153,25 @@ inline bool only_root_within(double A, double B, const CubicConstants& k, double
     const double a = std::fabs(z);
     return 1e-15 * (((a + std::fabs(c2)) * a + std::fabs(c1)) * a + std::fabs(c0));
   };
-  double z = std::clamp(1 + B - A, lo, hi);
+  // The proof around z, with the bracket [z - d, z + d].
+  const auto proven = [&](double z, double d) {
+    const double zl = z - d;
+    const double zu = z + d;
+    if (!(zl >= lo && zu <= hi && 3 * zu > -c2 && df(zu) > 0)) return false;
+    if (!(f(zl) < -rounding(zl) && f(zu) > rounding(zu))) return false;
+    // The other two roots: sum between -c2 - zu and -c2 - zl, product above -c0/zu.
+    constexpr double kSlack = 1e-12;  // covers the rounding of these few operations
+    const double sum_high = -c2 - zl;
+    if (sum_high + kSlack <= 2 * B || -c0 <= 0) return true;
+    const double sum_low = -c2 - zu;
+    const double sum_squared = std::max(sum_low * sum_low, sum_high * sum_high);
+    return (sum_squared * (1 + kSlack) + kSlack * kSlack) * zu < 4 * -c0;  // zu > 0
+  };
+  const double f1 = 1 + c2 + c1 + c0;
+  const double expanded = 1 - f1 * (1 - A - (u - 2) * B) - (2 + (u - 1) * B) * f1 * f1;
+  const double size = std::fabs(A) + B;
+  if (proven(expanded, 1e-9 + 8 * size * size * size)) return true;  // the third-order terms bound its error
+  double z = std::clamp(expanded, lo, hi);
   if (!(df(z) > 0)) z = hi;
   for (int i = 0;; ++i) {
     const double slope = df(z);
@@ -160,18 +180,7 @@ inline bool only_root_within(double A, double B, const CubicConstants& k, double
     z -= step;
     if (std::fabs(step) <= 1e-7) break;  // then z is off by about step^2, far inside the bracket
   }
-  constexpr double kHalfWidth = 1e-9;
-  const double zl = z - kHalfWidth;
-  const double zu = z + kHalfWidth;
-  if (!(zl >= lo && zu <= hi && 3 * zu > -c2 && df(zu) > 0)) return false;
-  if (!(f(zl) < -rounding(zl) && f(zu) > rounding(zu))) return false;
-  // The other two roots: sum between -c2 - zu and -c2 - zl, product above -c0/zu.
-  constexpr double kSlack = 1e-12;  // covers the rounding of these few operations
-  const double sum_high = -c2 - zl;
-  if (sum_high + kSlack <= 2 * B || -c0 <= 0) return true;
-  const double sum_low = -c2 - zu;
-  const double sum_squared = std::max(sum_low * sum_low, sum_high * sum_high);
-  return (sum_squared * (1 + kSlack) + kSlack * kSlack) * zu < 4 * -c0;  // zu > 0
+  return proven(z, 1e-9);
 }
 
 // a(T) and its first two temperature derivatives [Pa m6/mol2, per K, per K^2].
