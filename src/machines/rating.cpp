@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <bit>
 #include <cmath>
+#include <iterator>
 #include <utility>
 
 #include <fmt/format.h>
@@ -307,24 +308,27 @@ void add_warnings(const Problem& problem, const Endpoints& e, Rating& r) {
 // density or a volume flow that underflows or overflows; such a result is refused, never
 // printed as inf or nan.
 void refuse_non_finite(const Rating& r) {
-  const std::pair<const char*, double> values[] = {
-      {"inlet density", r.inlet.density},         {"outlet density", r.outlet.density},
-      {"inlet enthalpy", r.inlet.enthalpy},       {"outlet enthalpy", r.outlet.enthalpy},
-      {"inlet entropy", r.inlet.entropy},         {"outlet entropy", r.outlet.entropy},
-      {"mass flow", r.mass_flow.value_or(0)},     {"inlet volume flow", r.volume_flow.value_or(0)},
-      {"power", r.power.value_or(0)},             {"fluid power", r.fluid_power.value_or(0)},
-      {"polytropic efficiency", r.efficiency_polytropic},
-      {"isentropic head", r.head_isentropic},     {"polytropic head", r.head_polytropic},
-      {"pressure ratio", r.pressure_ratio},       {"head height", r.head_height.value_or(0)},
-      {"hydraulic power", r.hydraulic_power.value_or(0)}, {"tip speed", r.tip_speed.value_or(0)},
-      {"flow coefficient", r.flow_coefficient.value_or(0)},
-      {"machine Mach number", r.machine_mach_number.value_or(0)},
-  };
-  for (const auto& [name, value] : values) {
-    if (!std::isfinite(value)) {
+  static constexpr const char* kNames[] = {
+      "inlet density",   "outlet density",     "inlet enthalpy",        "outlet enthalpy",  "inlet entropy",
+      "outlet entropy",  "mass flow",          "inlet volume flow",     "power",            "fluid power",
+      "polytropic efficiency", "isentropic head", "polytropic head",    "pressure ratio",   "head height",
+      "hydraulic power", "tip speed",          "flow coefficient",      "machine Mach number"};
+  const double values[] = {
+      r.inlet.density,          r.outlet.density,          r.inlet.enthalpy,           r.outlet.enthalpy,
+      r.inlet.entropy,          r.outlet.entropy,          r.mass_flow.value_or(0),    r.volume_flow.value_or(0),
+      r.power.value_or(0),      r.fluid_power.value_or(0), r.efficiency_polytropic,    r.head_isentropic,
+      r.head_polytropic,        r.pressure_ratio,          r.head_height.value_or(0),  r.hydraulic_power.value_or(0),
+      r.tip_speed.value_or(0),  r.flow_coefficient.value_or(0), r.machine_mach_number.value_or(0)};
+  static_assert(std::size(kNames) == std::size(values));
+  // 0 x v is 0 for every finite v and NaN for an infinite or NaN one: one test for the row.
+  double any_not_finite = 0;
+  for (const double v : values) any_not_finite += 0 * v;
+  if (any_not_finite == 0) return;
+  for (std::size_t i = 0; i < std::size(values); ++i) {
+    if (!std::isfinite(values[i])) {
       refuse(fmt::format("the {} is not a finite number (inlet density {:.6g} kg/m3): the inputs lie beyond what "
                          "double-precision arithmetic holds; check their magnitudes and units",
-                         name, r.inlet.density));
+                         kNames[i], r.inlet.density));
     }
   }
 }
