@@ -37,6 +37,28 @@ unsigned special_bytes(const char* p) {
 }
 #endif
 
+// The line ends in text[0, size): with SSE2, sixteen bytes a compare, counted in byte lanes
+// (at most 255 blocks before the lanes are summed); the rest one by one.
+std::size_t count_newlines(const char* text, std::size_t size) {
+  std::size_t n = 0;
+  std::size_t i = 0;
+#if defined(__SSE2__)
+  const __m128i newline = _mm_set1_epi8('\n');
+  const __m128i zero = _mm_setzero_si128();
+  while (i + 16 <= size) {
+    __m128i lanes = zero;
+    for (int k = 0; k < 255 && i + 16 <= size; ++k, i += 16) {
+      const __m128i v = _mm_loadu_si128(reinterpret_cast<const __m128i*>(text + i));
+      lanes = _mm_sub_epi8(lanes, _mm_cmpeq_epi8(v, newline));  // a match is -1
+    }
+    const __m128i sums = _mm_sad_epu8(lanes, zero);  // two 16-bit sums, one per half
+    n += static_cast<std::size_t>(_mm_cvtsi128_si32(sums)) + static_cast<std::size_t>(_mm_extract_epi16(sums, 4));
+  }
+#endif
+  for (; i < size; ++i) n += text[i] == '\n';
+  return n;
+}
+
 // Position just after the last record end in text[from, size), given the quote
 // parity at `from`; updates the parity to the end. npos when no record ends there.
 // Jumps from quote to quote with memchr: a file without quotes costs one memrchr.
@@ -123,7 +145,7 @@ bool CsvChunker::next(CsvChunk& chunk) {
   }
   pending_.assign(text, boundary, std::string::npos);
   text.resize(boundary);
-  line_ += static_cast<std::size_t>(std::count(text.begin(), text.end(), '\n'));
+  line_ += count_newlines(text.data(), text.size());
   return true;
 }
 

@@ -3,7 +3,6 @@
 #include "shaftwork/machines/rating.hpp"
 
 #include <algorithm>
-#include <bit>
 #include <cmath>
 #include <iterator>
 #include <utility>
@@ -21,7 +20,13 @@ namespace shaftwork::machines {
 
 using fluids::State;
 
-std::size_t SolvedFor::size() const { return static_cast<std::size_t>(std::popcount(bits_)); }
+std::size_t SolvedFor::size() const {
+  // Seven bits at most: clearing the lowest set one at a time beats std::popcount, which
+  // without a -march that has the instruction is a call into libgcc (every rating asks).
+  std::size_t n = 0;
+  for (unsigned b = bits_; b != 0; b &= b - 1) ++n;
+  return n;
+}
 
 std::vector<std::string> SolvedFor::keys() const {
   std::vector<std::string> out;
