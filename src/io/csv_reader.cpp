@@ -31,8 +31,10 @@ constexpr auto kSpecial = [] {
 // A bit for each of the 16 bytes at p that kSpecial marks (',', '\n', '"').
 unsigned special_bytes(const char* p) {
   const __m128i v = _mm_loadu_si128(reinterpret_cast<const __m128i*>(p));
-  const __m128i hits = _mm_or_si128(_mm_or_si128(_mm_cmpeq_epi8(v, _mm_set1_epi8(',')), _mm_cmpeq_epi8(v, _mm_set1_epi8('\n'))),
-                                    _mm_cmpeq_epi8(v, _mm_set1_epi8('"')));
+  const __m128i commas = _mm_cmpeq_epi8(v, _mm_set1_epi8(','));
+  const __m128i line_ends = _mm_cmpeq_epi8(v, _mm_set1_epi8('\n'));
+  const __m128i quotes = _mm_cmpeq_epi8(v, _mm_set1_epi8('"'));
+  const __m128i hits = _mm_or_si128(_mm_or_si128(commas, line_ends), quotes);
   return static_cast<unsigned>(_mm_movemask_epi8(hits));
 }
 #endif
