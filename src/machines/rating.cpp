@@ -4,7 +4,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <iterator>
 #include <utility>
 
 #include <fmt/format.h>
@@ -309,33 +308,45 @@ void add_warnings(const Problem& problem, const Endpoints& e, Rating& r) {
   }
 }
 
+// Calls f(name, value) for each value of a result that must be a finite number.
+template <class F>
+void each_checked_value(const Rating& r, F&& f) {
+  f("inlet density", r.inlet.density);
+  f("outlet density", r.outlet.density);
+  f("inlet enthalpy", r.inlet.enthalpy);
+  f("outlet enthalpy", r.outlet.enthalpy);
+  f("inlet entropy", r.inlet.entropy);
+  f("outlet entropy", r.outlet.entropy);
+  f("mass flow", r.mass_flow.value_or(0));
+  f("inlet volume flow", r.volume_flow.value_or(0));
+  f("power", r.power.value_or(0));
+  f("fluid power", r.fluid_power.value_or(0));
+  f("polytropic efficiency", r.efficiency_polytropic);
+  f("isentropic head", r.head_isentropic);
+  f("polytropic head", r.head_polytropic);
+  f("pressure ratio", r.pressure_ratio);
+  f("head height", r.head_height.value_or(0));
+  f("hydraulic power", r.hydraulic_power.value_or(0));
+  f("tip speed", r.tip_speed.value_or(0));
+  f("flow coefficient", r.flow_coefficient.value_or(0));
+  f("machine Mach number", r.machine_mach_number.value_or(0));
+}
+
 // Inputs at the edges of what a double holds (an inlet pressure of 1e-308 Pa) can give a
 // density or a volume flow that underflows or overflows; such a result is refused, never
-// printed as inf or nan.
+// printed as inf or nan. One pass of independent tests for every rating; the names only
+// for a refusal.
 void refuse_non_finite(const Rating& r) {
-  static constexpr const char* kNames[] = {
-      "inlet density",   "outlet density",     "inlet enthalpy",        "outlet enthalpy",  "inlet entropy",
-      "outlet entropy",  "mass flow",          "inlet volume flow",     "power",            "fluid power",
-      "polytropic efficiency", "isentropic head", "polytropic head",    "pressure ratio",   "head height",
-      "hydraulic power", "tip speed",          "flow coefficient",      "machine Mach number"};
-  const double values[] = {
-      r.inlet.density,          r.outlet.density,          r.inlet.enthalpy,           r.outlet.enthalpy,
-      r.inlet.entropy,          r.outlet.entropy,          r.mass_flow.value_or(0),    r.volume_flow.value_or(0),
-      r.power.value_or(0),      r.fluid_power.value_or(0), r.efficiency_polytropic,    r.head_isentropic,
-      r.head_polytropic,        r.pressure_ratio,          r.head_height.value_or(0),  r.hydraulic_power.value_or(0),
-      r.tip_speed.value_or(0),  r.flow_coefficient.value_or(0), r.machine_mach_number.value_or(0)};
-  static_assert(std::size(kNames) == std::size(values));
-  // 0 x v is 0 for every finite v and NaN for an infinite or NaN one: one test for the row.
-  double any_not_finite = 0;
-  for (const double v : values) any_not_finite += 0 * v;
-  if (any_not_finite == 0) return;
-  for (std::size_t i = 0; i < std::size(values); ++i) {
-    if (!std::isfinite(values[i])) {
+  bool all_finite = true;
+  each_checked_value(r, [&](const char*, double value) { all_finite &= std::isfinite(value); });
+  if (all_finite) return;
+  each_checked_value(r, [&](const char* name, double value) {
+    if (!std::isfinite(value)) {
       refuse(fmt::format("the {} is not a finite number (inlet density {:.6g} kg/m3): the inputs lie beyond what "
                          "double-precision arithmetic holds; check their magnitudes and units",
-                         kNames[i], r.inlet.density));
+                         name, r.inlet.density));
     }
-  }
+  });
 }
 
 }  // namespace
