@@ -5,6 +5,7 @@
 
 #include <cmath>
 #include <limits>
+#include <utility>
 
 #include "cubic_core.hpp"
 #include "shaftwork/fluids/critical_data.hpp"
@@ -12,7 +13,16 @@
 namespace shaftwork::fluids {
 namespace {
 constexpr CubicKind kKind = CubicKind::peng_robinson;
+
+// A = a p/(R T)^2 and B = b p/(R T) at (p, T).
+std::pair<double, double> dimensionless(double a0, double a1, double a2, double b, double p, double T) {
+  const double RT = detail::kR * T;
+  const double a = a0 + a1 * std::sqrt(T) + a2 * T;
+  return {a * p / (RT * RT), b * p / RT};
 }
+
+bool valid(double p, double T) { return std::isfinite(p) && p > 0 && std::isfinite(T) && T > 0; }
+}  // namespace
 
 std::optional<CompressibilityEstimator> CompressibilityEstimator::for_mixture(
     const std::vector<std::pair<std::string, double>>& mole_fractions) {
@@ -57,15 +67,18 @@ std::optional<CompressibilityEstimator> CompressibilityEstimator::for_mixture(
 }
 
 double CompressibilityEstimator::z(double p, double T) const {
-  if (!(std::isfinite(p) && p > 0 && std::isfinite(T) && T > 0)) return std::numeric_limits<double>::quiet_NaN();
+  if (!valid(p, T)) return std::numeric_limits<double>::quiet_NaN();
   const detail::CubicConstants k = detail::cubic_constants(kKind);
-  const double RT = detail::kR * T;
-  const double a = a0_ + a1_ * std::sqrt(T) + a2_ * T;
-  const double A = a * p / (RT * RT);
-  const double B = b_ * p / RT;
+  const auto [A, B] = dimensionless(a0_, a1_, a2_, b_, p, T);
   const detail::CubicRoots roots = detail::cubic_roots(A, B, k);
   if (roots.count == 0) return std::numeric_limits<double>::quiet_NaN();
   return detail::stable_root(roots, A, B, k);
+}
+
+bool CompressibilityEstimator::proven_within(double p, double T, double tolerance) const {
+  if (!valid(p, T) || !(tolerance >= 0 && tolerance < 0.5)) return false;
+  const auto [A, B] = dimensionless(a0_, a1_, a2_, b_, p, T);
+  return detail::only_root_within(A, B, detail::cubic_constants(kKind), 1 - tolerance, 1 + tolerance);
 }
 
 std::optional<double> estimate_compressibility(const std::vector<std::pair<std::string, double>>& mole_fractions,

@@ -120,6 +120,69 @@ inline CubicRoots cubic_roots(double A, double B, const CubicConstants& k) {
   return roots;
 }
 
+// True when the cubic has one root Z > B and that root is proven to lie within [lo, hi]
+// (lo above 1/3, on the gas side): it is then the root stable_root() returns, found without
+// the closed form's acos, cos and cbrt. False when that is not proven (another root may lie
+// above B, the root lies outside [lo, hi] or too close to an end to tell); the caller then
+// solves with cubic_roots(). For f(Z) = Z^3 + c2 Z^2 + c1 Z + c0 (coefficients as there):
+//  - a root z near 1 is estimated from f's expansion about 1 to second order in A and B,
+//    Z = 1 + e, e = -f(1) (1 - A - (u - 2) B) - (2 + (u - 1) B) f(1)^2 (u = d1 + d2), which
+//    needs no division; where the proof below fails around it, Newton's method from it
+//    (held within [lo, hi], or from hi where f falls there) refines it and the proof is
+//    tried once more. f is convex there, so the steps reach a root in [lo, hi] from above;
+//  - f(z - d) < 0 < f(z + d), each beyond the rounding of f, brackets a root; f is convex
+//    beyond its inflection point -c2/3, so with z + d past it and f'(z + d) > 0, f rises
+//    beyond z + d and the bracket holds the largest root r3;
+//  - f(B) = -(1 + d1 + d2 + d1 d2) B^2 < 0 (for both equations), so the other two roots
+//    lie on the same side of B, or are complex;
+//  - the other two roots have the sum -c2 - r3 and the product -c0/r3 (Vieta). Both above
+//    B needs a sum above 2 B, a positive product, and real roots (sum^2 >= 4 product); the
+//    bracket bounds the sum and the product, and any of the three failing proves r3 the
+//    only root above B.
+inline bool only_root_within(double A, double B, const CubicConstants& k, double lo, double hi) {
+  if (!(std::isfinite(A) && B > 0 && lo > 1.0 / 3)) return false;  // three roots in [lo, hi] would sum above 1
+  const double u = k.d1 + k.d2;
+  const double w = k.d1 * k.d2;
+  const double c2 = (u - 1) * B - 1;
+  const double c1 = A + w * B * B - u * B - u * B * B;
+  const double c0 = -(A * B + w * B * B + w * B * B * B);
+  const auto f = [&](double z) { return ((z + c2) * z + c1) * z + c0; };
+  const auto df = [&](double z) { return (3 * z + 2 * c2) * z + c1; };
+  // A bound on the rounding error of f(z) near z ~ 1 (a few ulps of its largest term).
+  const auto rounding = [&](double z) {
+    const double a = std::fabs(z);
+    return 1e-15 * (((a + std::fabs(c2)) * a + std::fabs(c1)) * a + std::fabs(c0));
+  };
+  // The proof around z, with the bracket [z - d, z + d].
+  const auto proven = [&](double z, double d) {
+    const double zl = z - d;
+    const double zu = z + d;
+    if (!(zl >= lo && zu <= hi && 3 * zu > -c2 && df(zu) > 0)) return false;
+    if (!(f(zl) < -rounding(zl) && f(zu) > rounding(zu))) return false;
+    // The other two roots: sum between -c2 - zu and -c2 - zl, product above -c0/zu.
+    constexpr double kSlack = 1e-12;  // covers the rounding of these few operations
+    const double sum_high = -c2 - zl;
+    if (sum_high + kSlack <= 2 * B || -c0 <= 0) return true;
+    const double sum_low = -c2 - zu;
+    const double sum_squared = std::max(sum_low * sum_low, sum_high * sum_high);
+    return (sum_squared * (1 + kSlack) + kSlack * kSlack) * zu < 4 * -c0;  // zu > 0
+  };
+  const double f1 = 1 + c2 + c1 + c0;
+  const double expanded = 1 - f1 * (1 - A - (u - 2) * B) - (2 + (u - 1) * B) * f1 * f1;
+  const double size = std::fabs(A) + B;
+  if (proven(expanded, 1e-9 + 8 * size * size * size)) return true;  // the third-order terms bound its error
+  double z = std::clamp(expanded, lo, hi);
+  if (!(df(z) > 0)) z = hi;
+  for (int i = 0;; ++i) {
+    const double slope = df(z);
+    if (!(slope > 0) || i == 16) return false;
+    const double step = f(z) / slope;
+    z -= step;
+    if (std::fabs(step) <= 1e-7) break;  // then z is off by about step^2, far inside the bracket
+  }
+  return proven(z, 1e-9);
+}
+
 // a(T) and its first two temperature derivatives [Pa m6/mol2, per K, per K^2].
 struct Attraction {
   double a;

@@ -105,7 +105,8 @@ struct IdealGasMixtureData {
   }
 
   // The temperature at which H°/R (by_entropy false) or S°/R at p° (true) reaches `target`:
-  // a Hermite guess in its grid cell, then safeguarded Newton within the neighbouring cells.
+  // a Hermite guess in its grid cell, then Newton within the neighbouring cells (safeguarded
+  // by them where the plain steps stray).
   // A target outside the grid by no more than `slack` (a state the model gave at an end of
   // its range, rounded) stands for that end; further out, `refuse(below)` is called, which
   // throws the caller's out-of-range error (or returns for the optional form).
@@ -121,22 +122,27 @@ struct IdealGasMixtureData {
     const MixtureCell& c = cells[k];
     const double low = cells[k == 0 ? 0 : k - 1].t0;
     const double high = cells[std::min(k + 1, cells.size() - 1)].t1;
+    numerics::RootOptions options;
+    options.relative_tolerance = kTolerance;
+    options.max_iterations = kMaxIterations;
+    // Both functions rise with T (cp > 0) and cross the target within the neighbouring
+    // cells, so the steps from the guess need no evaluation at the ends unless they stray.
+    const auto solve = [&](const auto& f, double guess, const std::string& what) {
+      if (const auto t = numerics::newton_from_start(f, guess, low, high, options)) return *t;
+      return numerics::newton_root(f, guess, low, high, what.c_str(), options).x;
+    };
     if (by_entropy) {
-      return numerics::newton_bracketed(
-          [&](double t) {
-            const MixtureValues v = at(t);
-            return numerics::ValueAndSlope{v.s_r - target, v.cp_r / t};
-          },
-          hermite(target, c.s0, c.s1, c.t0, c.t1, c.dtds0, c.dtds1), low, high, kTolerance, kMaxIterations,
-          solve_s_label.c_str());
+      const auto f = [&](double t) {
+        const MixtureValues v = at(t);
+        return numerics::ValueAndSlope{v.s_r - target, v.cp_r / t};
+      };
+      return solve(f, hermite(target, c.s0, c.s1, c.t0, c.t1, c.dtds0, c.dtds1), solve_s_label);
     }
-    return numerics::newton_bracketed(
-        [&](double t) {
-          const MixtureValues v = at(t);
-          return numerics::ValueAndSlope{v.h_r - target, v.cp_r};
-        },
-        hermite(target, c.h0, c.h1, c.t0, c.t1, c.dtdh0, c.dtdh1), low, high, kTolerance, kMaxIterations,
-        solve_h_label.c_str());
+    const auto f = [&](double t) {
+      const MixtureValues v = at(t);
+      return numerics::ValueAndSlope{v.h_r - target, v.cp_r};
+    };
+    return solve(f, hermite(target, c.h0, c.h1, c.t0, c.t1, c.dtdh0, c.dtdh1), solve_h_label);
   }
 };
 

@@ -35,14 +35,16 @@ struct NasaPolynomialGas::Impl {
   const IdealGasMixtureData& d;
   std::optional<CompressibilityEstimator> z_estimate;  // for warnings where the ideal gas is off
 
-  State state(double p, double T) const {
+  State state(double p, double T) const { return state(p, T, std::log(p / kStandardPressure)); }
+  // log_p = ln(p/p°), when the caller has it already.
+  State state(double p, double T, double log_p) const {
     const MixtureValues v = d.at(T);
     const double R = d.gas_constant;
     State st;
     st.pressure = p;
     st.temperature = T;
     st.enthalpy = R * v.h_r;
-    st.entropy = R * (v.s_r - std::log(p / kStandardPressure));
+    st.entropy = R * (v.s_r - log_p);
     st.cp = R * v.cp_r;
     st.cv = st.cp - R;
     st.density = p / (R * T);
@@ -94,7 +96,7 @@ State NasaPolynomialGas::from_ps(double p, double s) const {
                                                                d.label, s, p, below ? "below" : "above",
                                                                d.range.low, d.range.high));
                                      });
-  return impl_->state(p, T);
+  return impl_->state(p, T, log_p);
 }
 
 std::string NasaPolynomialGas::description() const { return impl_->d.description; }
@@ -111,6 +113,10 @@ std::optional<double> NasaPolynomialGas::estimated_compressibility(double p, dou
   if (!impl_->z_estimate) return std::nullopt;
   const double z = impl_->z_estimate->z(p, T);
   return std::isfinite(z) ? std::optional<double>(z) : std::nullopt;
+}
+
+bool NasaPolynomialGas::estimated_compressibility_within(double p, double T, double tolerance) const {
+  return impl_->z_estimate && impl_->z_estimate->proven_within(p, T, tolerance);
 }
 
 std::vector<std::pair<std::string, double>> NasaPolynomialGas::mole_fractions() const {

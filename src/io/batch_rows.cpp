@@ -277,19 +277,15 @@ bool RowRater::apply_uncertainties(std::size_t line) {
 }
 
 bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t line) {
-  const std::string_view cell = trim(raw);
   double x = 0;
-  if (const std::string_view problem = parse_cell_number(cell, x); !problem.empty()) {
-    if (problem == "the cell is empty") {
-      error_ = fmt::format("line {}, column \"{}\": the cell is empty", line, c.header);
-    } else if (problem == "out of range") {
-      error_ = fmt::format("line {}, column \"{}\": the number \"{}\" is out of range", line, c.header, cell);
-    } else if (problem == "not finite") {
-      error_ = fmt::format("line {}, column \"{}\": \"{}\" is not a finite number", line, c.header, cell);
-    } else {
-      error_ = fmt::format("line {}, column \"{}\": \"{}\" is not a number", line, c.header, cell);
+  std::string_view cell = raw;
+  // The common cell at once; any other trimmed and read in full.
+  if (!parse_plain_decimal(raw, x)) {
+    cell = trim(raw);
+    if (const std::string_view problem = parse_cell_number(cell, x); !problem.empty()) {
+      refuse_cell(c, cell, problem, line);
+      return false;
     }
-    return false;
   }
   double si = c.scale * x + c.offset + (c.gauge ? barometer_ : 0.0);
   if (!c.unit.empty() && (!within_domain(c.dimension, si) || (c.vacuum && x < 0))) {
@@ -298,9 +294,11 @@ bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t lin
   }
   readings_[static_cast<std::size_t>(c.input)] = std::fabs(c.scale * x) * c.factor;
   si = si * c.factor + 0.0;  // as units::parse: no -0.0
-  if (const std::string problem = given_value_problem(c.input, si, c.unit); !problem.empty()) {
-    error_ = fmt::format("line {}, column \"{}\": {}", line, c.header, problem);
-    return false;
+  if (!plainly_acceptable(c.input, si)) {
+    if (const std::string problem = given_value_problem(c.input, si, c.unit); !problem.empty()) {
+      error_ = fmt::format("line {}, column \"{}\": {}", line, c.header, problem);
+      return false;
+    }
   }
   if (c.input == Input::barometric_pressure) {
     barometer_ = si;
@@ -308,6 +306,19 @@ bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t lin
     input_.*machines::spec(c.input).field = si;
   }
   return true;
+}
+
+// The message of a cell that is not a number (parse_cell_number's `problem`).
+void RowRater::refuse_cell(const InputColumn& c, std::string_view cell, std::string_view problem, std::size_t line) {
+  if (problem == "the cell is empty") {
+    error_ = fmt::format("line {}, column \"{}\": the cell is empty", line, c.header);
+  } else if (problem == "out of range") {
+    error_ = fmt::format("line {}, column \"{}\": the number \"{}\" is out of range", line, c.header, cell);
+  } else if (problem == "not finite") {
+    error_ = fmt::format("line {}, column \"{}\": \"{}\" is not a finite number", line, c.header, cell);
+  } else {
+    error_ = fmt::format("line {}, column \"{}\": \"{}\" is not a number", line, c.header, cell);
+  }
 }
 
 // Why a converted cell is out of its dimension's domain, in the units layer's words.

@@ -71,6 +71,7 @@ class RowRater {
   BatchPoint point_of(bool rated, std::size_t row) const;
   bool apply_cells(std::size_t line);
   bool apply(const InputColumn& c, std::string_view raw, std::size_t line);
+  void refuse_cell(const InputColumn& c, std::string_view cell, std::string_view problem, std::size_t line);
   bool apply_uncertainties(std::size_t line);
   std::string domain_problem(const InputColumn& c, std::string_view cell) const;
   void write_csv_row(OutputBuffer& out, bool rated);

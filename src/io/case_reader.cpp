@@ -217,11 +217,10 @@ const InputSpec* find_case_input(std::string_view key) {
 }
 
 std::string given_value_problem(Input input, double si, std::string_view unit) {
-  std::string problem = machines::value_problem(input, si);
-  if (!problem.empty()) return problem;
+  if (!machines::value_acceptable(input, si)) return machines::value_problem(input, si);
   const bool efficiency = machines::spec(input).dimension == Dimension::fraction && input != Input::inlet_quality &&
                           input != Input::outlet_quality;
-  if (efficiency && unit == "%" && si < 0.01) {
+  if (si < 0.01 && efficiency && unit == "%") {
     return fmt::format("{:g} % is implausible for an efficiency: write {:g} % (or the fraction {:g} without a unit)",
                        100 * si, 1e4 * si, 100 * si);
   }

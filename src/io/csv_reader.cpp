@@ -2,7 +2,12 @@
 
 #include <algorithm>
 #include <array>
+#include <bit>
 #include <cstring>
+
+#if defined(__SSE2__)
+#include <emmintrin.h>
+#endif
 
 #include <fmt/format.h>
 
@@ -21,6 +26,40 @@ constexpr auto kSpecial = [] {
   table[static_cast<unsigned char>('"')] = true;
   return table;
 }();
+
+#if defined(__SSE2__)
+// A bit for each of the 16 bytes at p that kSpecial marks (',', '\n', '"').
+unsigned special_bytes(const char* p) {
+  const __m128i v = _mm_loadu_si128(reinterpret_cast<const __m128i*>(p));
+  const __m128i commas = _mm_cmpeq_epi8(v, _mm_set1_epi8(','));
+  const __m128i line_ends = _mm_cmpeq_epi8(v, _mm_set1_epi8('\n'));
+  const __m128i quotes = _mm_cmpeq_epi8(v, _mm_set1_epi8('"'));
+  const __m128i hits = _mm_or_si128(_mm_or_si128(commas, line_ends), quotes);
+  return static_cast<unsigned>(_mm_movemask_epi8(hits));
+}
+#endif
+
+// The line ends in text[0, size): with SSE2, sixteen bytes a compare, counted in byte lanes
+// (at most 255 blocks before the lanes are summed); the rest one by one.
+std::size_t count_newlines(const char* text, std::size_t size) {
+  std::size_t n = 0;
+  std::size_t i = 0;
+#if defined(__SSE2__)
+  const __m128i newline = _mm_set1_epi8('\n');
+  const __m128i zero = _mm_setzero_si128();
+  while (i + 16 <= size) {
+    __m128i lanes = zero;
+    for (int k = 0; k < 255 && i + 16 <= size; ++k, i += 16) {
+      const __m128i v = _mm_loadu_si128(reinterpret_cast<const __m128i*>(text + i));
+      lanes = _mm_sub_epi8(lanes, _mm_cmpeq_epi8(v, newline));  // a match is -1
+    }
+    const __m128i sums = _mm_sad_epu8(lanes, zero);  // two 16-bit sums, one per half
+    n += static_cast<std::size_t>(_mm_cvtsi128_si32(sums)) + static_cast<std::size_t>(_mm_extract_epi16(sums, 4));
+  }
+#endif
+  for (; i < size; ++i) n += text[i] == '\n';
+  return n;
+}
 
 // Position just after the last record end in text[from, size), given the quote
 // parity at `from`; updates the parity to the end. npos when no record ends there.
@@ -108,7 +147,7 @@ bool CsvChunker::next(CsvChunk& chunk) {
   }
   pending_.assign(text, boundary, std::string::npos);
   text.resize(boundary);
-  line_ += static_cast<std::size_t>(std::count(text.begin(), text.end(), '\n'));
+  line_ += count_newlines(text.data(), text.size());
   return true;
 }
 
@@ -132,7 +171,30 @@ bool CsvRecordParser::skip_empty_lines() {
 bool CsvRecordParser::next_plain(CsvRecord& record) {
   std::size_t i = pos_;
   std::size_t field_start = pos_;
-  for (; i < size_; ++i) {
+  bool at_line_end = false;
+#if defined(__SSE2__)
+  // Sixteen bytes at a time while they last: a mask of the special bytes, taken in order.
+  while (!at_line_end && i + 16 <= size_) {
+    const std::size_t block = i;
+    i += 16;
+    for (unsigned mask = special_bytes(data_ + block); mask != 0; mask &= mask - 1) {
+      const std::size_t at = block + static_cast<std::size_t>(std::countr_zero(mask));
+      const char c = data_[at];
+      if (c == ',') {
+        record.fields.emplace_back(data_ + field_start, at - field_start);
+        field_start = at + 1;
+      } else if (c == '\n') {
+        i = at;
+        at_line_end = true;
+        break;
+      } else {  // a quote
+        record.fields.clear();
+        return false;
+      }
+    }
+  }
+#endif
+  for (; !at_line_end && i < size_; ++i) {
     while (i < size_ && !kSpecial[static_cast<unsigned char>(data_[i])]) ++i;  // plain bytes
     if (i == size_) break;
     const char c = data_[i];

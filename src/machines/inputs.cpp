@@ -1,6 +1,7 @@
 #include "shaftwork/machines/inputs.hpp"
 
 #include <cmath>
+#include <utility>
 
 #include <fmt/format.h>
 
@@ -42,27 +43,57 @@ std::string_view quantity_key(Quantity q) {
 }
 
 std::string value_problem(Input input, double value) {
+  if (value_acceptable(input, value)) return {};
   // "{}" writes the shortest text that reads back as the same double, so 1.0000001 is
   // not shown as 1 next to "at most 1".
   if (!std::isfinite(value)) return "must be a finite number";
   switch (spec(input).accepts) {
-    case Accepts::positive:
-      if (!(value > 0)) return fmt::format("must be above 0, got {}", value);
-      break;
-    case Accepts::fraction:
-      if (!(value > 0 && value <= 1)) {
-        return fmt::format("must be above 0 and at most 1 (or 100 %), got {}", value);
-      }
-      break;
-    case Accepts::unit_closed:
-      if (!(value >= 0 && value <= 1)) return fmt::format("must be between 0 and 1, got {}", value);
-      break;
+    case Accepts::positive: return fmt::format("must be above 0, got {}", value);
+    case Accepts::fraction: return fmt::format("must be above 0 and at most 1 (or 100 %), got {}", value);
+    case Accepts::unit_closed: return fmt::format("must be between 0 and 1, got {}", value);
     case Accepts::any: break;
   }
   return {};
 }
 
+namespace {
+
+// One row of kInputs for input_acceptable(), its field known at compile time: an absent
+// value costs a test of its flag.
+template <std::size_t I>
+bool field_acceptable(const RatingInput& in, unsigned& quantities) {
+  constexpr InputSpec s = kInputs[I];
+  if constexpr (s.field == nullptr) {
+    return true;
+  } else {
+    const std::optional<double>& value = in.*s.field;
+    if (!value) return true;
+    if constexpr (s.gives.has_value()) {
+      const unsigned bit = 1u << static_cast<unsigned>(*s.gives);
+      if (quantities & bit) return false;  // a second form of the same quantity
+      quantities |= bit;
+    }
+    return value_acceptable(s.input, *value);
+  }
+}
+
+template <std::size_t... I>
+bool fields_acceptable(const RatingInput& in, unsigned& quantities, std::index_sequence<I...>) {
+  return (field_acceptable<I>(in, quantities) && ...);
+}
+
+}  // namespace
+
+bool input_acceptable(const RatingInput& in, unsigned& quantities) {
+  quantities = 0;
+  if (!fields_acceptable(in, quantities, std::make_index_sequence<kInputCount>{})) return false;
+  if (in.head && in.machine != MachineKind::pump) return false;
+  if ((in.impeller_tip_diameter || in.impeller_exit_width) && in.machine != MachineKind::compressor) return false;
+  return !(in.impeller_exit_width && !in.impeller_tip_diameter);
+}
+
 std::string input_problem(const RatingInput& in) {
+  if (unsigned quantities = 0; input_acceptable(in, quantities)) return {};
   const InputSpec* first_form[kQuantityCount] = {};
   for (const InputSpec& s : kInputs) {
     if (!s.field || !(in.*s.field)) continue;

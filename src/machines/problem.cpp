@@ -28,10 +28,7 @@ constexpr double kSmallestPressureChange = 1e-7;
 
 Problem::Problem(const RatingInput& input)
     : in(input), fluid(checked_fluid(input)), compression(compresses(input.machine)) {
-  if (const std::string problem = input_problem(in); !problem.empty()) refuse(problem);
-  for (const InputSpec& s : kInputs) {
-    if (s.gives && in.*s.field) known_ |= 1u << static_cast<unsigned>(*s.gives);
-  }
+  if (!input_acceptable(in, known_)) refuse(input_problem(in));
   if (in.inlet_pressure && in.outlet_pressure) check_pressure_direction(*in.inlet_pressure, *in.outlet_pressure);
 }
 

@@ -3,7 +3,6 @@
 #include "shaftwork/machines/rating.hpp"
 
 #include <algorithm>
-#include <bit>
 #include <cmath>
 #include <utility>
 
@@ -20,7 +19,13 @@ namespace shaftwork::machines {
 
 using fluids::State;
 
-std::size_t SolvedFor::size() const { return static_cast<std::size_t>(std::popcount(bits_)); }
+std::size_t SolvedFor::size() const {
+  // Seven bits at most: clearing the lowest set one at a time beats std::popcount, which
+  // without a -march that has the instruction is a call into libgcc (every rating asks).
+  std::size_t n = 0;
+  for (unsigned b = bits_; b != 0; b &= b - 1) ++n;
+  return n;
+}
 
 std::vector<std::string> SolvedFor::keys() const {
   std::vector<std::string> out;
@@ -254,6 +259,8 @@ constexpr double kIdealGasWarningPressure = 1.0e6;  // Pa
 std::string ideal_gas_warning(const Problem& problem, const Rating& r) {
   if (problem.fluid.fluid_kind() != fluids::FluidKind::ideal_gas) return {};
   for (const State* s : {&r.inlet, &r.outlet}) {
+    // The cheap proof first; the estimate itself (a cubic's roots) where it does not settle it.
+    if (problem.fluid.estimated_compressibility_within(s->pressure, s->temperature, kIdealGasZTolerance)) continue;
     const auto z = problem.fluid.estimated_compressibility(s->pressure, s->temperature);
     if (!z) continue;
     if (std::fabs(1 - *z) <= kIdealGasZTolerance) continue;
@@ -301,30 +308,45 @@ void add_warnings(const Problem& problem, const Endpoints& e, Rating& r) {
   }
 }
 
+// Calls f(name, value) for each value of a result that must be a finite number.
+template <class F>
+void each_checked_value(const Rating& r, F&& f) {
+  f("inlet density", r.inlet.density);
+  f("outlet density", r.outlet.density);
+  f("inlet enthalpy", r.inlet.enthalpy);
+  f("outlet enthalpy", r.outlet.enthalpy);
+  f("inlet entropy", r.inlet.entropy);
+  f("outlet entropy", r.outlet.entropy);
+  f("mass flow", r.mass_flow.value_or(0));
+  f("inlet volume flow", r.volume_flow.value_or(0));
+  f("power", r.power.value_or(0));
+  f("fluid power", r.fluid_power.value_or(0));
+  f("polytropic efficiency", r.efficiency_polytropic);
+  f("isentropic head", r.head_isentropic);
+  f("polytropic head", r.head_polytropic);
+  f("pressure ratio", r.pressure_ratio);
+  f("head height", r.head_height.value_or(0));
+  f("hydraulic power", r.hydraulic_power.value_or(0));
+  f("tip speed", r.tip_speed.value_or(0));
+  f("flow coefficient", r.flow_coefficient.value_or(0));
+  f("machine Mach number", r.machine_mach_number.value_or(0));
+}
+
 // Inputs at the edges of what a double holds (an inlet pressure of 1e-308 Pa) can give a
 // density or a volume flow that underflows or overflows; such a result is refused, never
-// printed as inf or nan.
+// printed as inf or nan. One pass of independent tests for every rating; the names only
+// for a refusal.
 void refuse_non_finite(const Rating& r) {
-  const std::pair<const char*, double> values[] = {
-      {"inlet density", r.inlet.density},         {"outlet density", r.outlet.density},
-      {"inlet enthalpy", r.inlet.enthalpy},       {"outlet enthalpy", r.outlet.enthalpy},
-      {"inlet entropy", r.inlet.entropy},         {"outlet entropy", r.outlet.entropy},
-      {"mass flow", r.mass_flow.value_or(0)},     {"inlet volume flow", r.volume_flow.value_or(0)},
-      {"power", r.power.value_or(0)},             {"fluid power", r.fluid_power.value_or(0)},
-      {"polytropic efficiency", r.efficiency_polytropic},
-      {"isentropic head", r.head_isentropic},     {"polytropic head", r.head_polytropic},
-      {"pressure ratio", r.pressure_ratio},       {"head height", r.head_height.value_or(0)},
-      {"hydraulic power", r.hydraulic_power.value_or(0)}, {"tip speed", r.tip_speed.value_or(0)},
-      {"flow coefficient", r.flow_coefficient.value_or(0)},
-      {"machine Mach number", r.machine_mach_number.value_or(0)},
-  };
-  for (const auto& [name, value] : values) {
+  bool all_finite = true;
+  each_checked_value(r, [&](const char*, double value) { all_finite &= std::isfinite(value); });
+  if (all_finite) return;
+  each_checked_value(r, [&](const char* name, double value) {
     if (!std::isfinite(value)) {
       refuse(fmt::format("the {} is not a finite number (inlet density {:.6g} kg/m3): the inputs lie beyond what "
                          "double-precision arithmetic holds; check their magnitudes and units",
                          name, r.inlet.density));
     }
-  }
+  });
 }
 
 }  // namespace

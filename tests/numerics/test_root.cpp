@@ -12,6 +12,7 @@
 //   ln 10 = 2.30258 50929 94045 68402).
 #include <cmath>
 #include <limits>
+#include <optional>
 #include <string>
 
 #include <catch2/catch.hpp>
@@ -236,4 +237,52 @@ TEST_CASE("newton_bracketed is newton_root's root with a relative tolerance and 
   const Error e = error_of([&] { numerics::newton_bracketed(f, 2.5, 3.0, 4.0, 1e-10, 50, "wallis"); });
   CHECK(e.kind() == ErrorKind::out_of_range);
   CHECK(std::string(e.what()) == "wallis: no solution between 3 and 4");
+}
+
+TEST_CASE("newton_from_start: newton_root's root from a close start, without the ends") {
+  // Wallis's cubic and e^x = 10 rise through their roots (reference roots at the top).
+  for (const Fn* fn : {&kWallisFn, &kExpFn}) {
+    int calls = 0;
+    const auto f = [&](double x) {
+      ++calls;
+      return ValueAndSlope{fn->value(x), fn->slope(x)};
+    };
+    const double root = fn == &kWallisFn ? kWallis : kLn10;
+    RootOptions options;
+    options.relative_tolerance = 1e-10;  // the property models' tolerance
+    const double start = root * (1 + 1e-3);
+    const std::optional<double> x = numerics::newton_from_start(f, start, 1.0, 4.0, options);
+    REQUIRE(x.has_value());
+    CHECK(std::fabs(*x - root) <= 1e-10 * root);
+    const int unchecked_calls = calls;
+    calls = 0;
+    const RootResult checked = numerics::newton_root(f, start, 1.0, 4.0, "x", options);
+    CHECK(*x == checked.x);  // the same steps, bit for bit
+    CHECK(unchecked_calls + 2 == calls);  // less the two ends
+    CHECK(checked.iterations == static_cast<std::uintmax_t>(unchecked_calls));
+  }
+}
+
+TEST_CASE("newton_from_start: empty where newton_root would bisect, meet a non-finite f or spend its budget") {
+  const auto wallis = [](double x) { return ValueAndSlope{kWallisFn.value(x), kWallisFn.slope(x)}; };
+  // From 1.0 (slope 1) the first step goes to 7, beyond the bracket's high end 3.
+  CHECK_FALSE(numerics::newton_from_start(wallis, 1.0, 0.5, 3.0, {}).has_value());
+  // A start outside the bracket, or on an end.
+  CHECK_FALSE(numerics::newton_from_start(wallis, 3.5, 2.0, 3.0, {}).has_value());
+  CHECK_FALSE(numerics::newton_from_start(wallis, 2.0, 2.0, 3.0, {}).has_value());
+  const auto nan_inside = [](double x) { return ValueAndSlope{x > 0.3 && x < 0.9 ? kNaN : x - 0.5, 1.0}; };
+  CHECK_FALSE(numerics::newton_from_start(nan_inside, 0.6, 0.0, 1.0, {}).has_value());
+  RootOptions two_steps;
+  two_steps.max_iterations = 2;
+  two_steps.relative_tolerance = 1e-15;
+  CHECK_FALSE(numerics::newton_from_start(wallis, 2.9, 2.0, 3.0, two_steps).has_value());
+  // Steps that settle only by rounding onto an end never evaluated (e^x = 10 from above,
+  // at 1e-15): newton_root bisects towards that end; this form leaves it to newton_root.
+  const auto exp10 = [](double x) { return ValueAndSlope{kExpFn.value(x), kExpFn.slope(x)}; };
+  RootOptions tight;
+  tight.relative_tolerance = 1e-15;
+  CHECK_FALSE(numerics::newton_from_start(exp10, kLn10 * (1 + 1e-3), 1.0, 4.0, tight).has_value());
+  // The exact root as the start is returned as it is.
+  const auto line = [](double x) { return ValueAndSlope{2 * x - 1, 2.0}; };
+  CHECK(numerics::newton_from_start(line, 0.5, 0.0, 1.0, {}) == std::optional<double>(0.5));
 }

@@ -29,6 +29,12 @@ class CompressibilityEstimator {
       const std::vector<std::pair<std::string, double>>& mole_fractions);
   // Z at p [Pa], T [K] (both positive and finite; else NaN).
   double z(double p, double T) const;
+  // True when Z at (p, T) is proven to lie within 1 +- tolerance (below 0.5) by a test much
+  // cheaper than z(): Newton's method on the gas root, with a bracket and a proof that no
+  // other root could be the stable one (detail::only_root_within, src/fluids/cubic_core.hpp).
+  // Then |1 - z(p, T)| <= tolerance as well. False when that is not proven, either way:
+  // z() then tells.
+  bool proven_within(double p, double T, double tolerance) const;
 
  private:
   double a0_ = 0, a1_ = 0, a2_ = 0;  // a(T) = a0 + a1 sqrt(T) + a2 T, Pa m6/mol2

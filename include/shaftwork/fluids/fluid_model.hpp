@@ -50,6 +50,12 @@ class FluidModel {
   // Z the real gas has at (p, T) (fluids/compressibility_estimate.hpp), so that a rating
   // can warn where the ideal gas is off. Empty for other models and unknown compositions.
   virtual std::optional<double> estimated_compressibility(double /*p*/, double /*T*/) const { return std::nullopt; }
+  // True when estimated_compressibility(p, T) is proven to lie within 1 +- tolerance by a
+  // test cheaper than the estimate itself (a batch asks it at every row's inlet and
+  // outlet). False when not proven either way: estimated_compressibility() then tells.
+  virtual bool estimated_compressibility_within(double /*p*/, double /*T*/, double /*tolerance*/) const {
+    return false;
+  }
 
   // The model's name as case files write it: "constant-cp", "nasa-polynomial",
   // "iapws-if97", "incompressible".

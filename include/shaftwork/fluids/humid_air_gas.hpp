@@ -39,6 +39,9 @@ class HumidAirGas final : public FluidModel {
   std::optional<double> estimated_compressibility(double p, double T) const override {
     return gas_->estimated_compressibility(p, T);
   }
+  bool estimated_compressibility_within(double p, double T, double tolerance) const override {
+    return gas_->estimated_compressibility_within(p, T, tolerance);
+  }
   // The dew point of the water vapour at total pressure p: water_dew_point(y_w p).
   std::optional<double> dew_point(double p) const override;
 

@@ -128,6 +128,7 @@ class NasaPolynomialGas final : public FluidModel {
   // Peng-Robinson on the composition with the built-in critical constants
   // (compressibility_estimate.hpp); empty when a species has none.
   std::optional<double> estimated_compressibility(double p, double T) const override;
+  bool estimated_compressibility_within(double p, double T, double tolerance) const override;
 
   // Mole fractions after renormalisation, by species name, in the order given.
   std::vector<std::pair<std::string, double>> mole_fractions() const;

@@ -38,6 +38,13 @@ const machines::InputSpec* find_case_input(std::string_view key);
 // The problem with a given value beyond machines::value_problem: an efficiency written as
 // "0.8 %" (a fraction in a percent column), a barometer in a gauge unit. "" when none.
 std::string given_value_problem(machines::Input input, double si, std::string_view unit);
+// True when given_value_problem(input, si, unit) is "" whatever the unit, found without a
+// call: a value in its range and at least 0.01 (no efficiency in % to doubt), for any input
+// but the barometer (whose unit is checked). A batch asks it of every cell, and
+// given_value_problem() only where it is false.
+inline bool plainly_acceptable(machines::Input input, double si) {
+  return si >= 0.01 && input != machines::Input::barometric_pressure && machines::value_acceptable(input, si);
+}
 
 // The warning of a case that gives a gauge pressure but no site barometer.
 inline constexpr std::string_view kDefaultBarometerWarning =

@@ -17,6 +17,7 @@
 #pragma once
 
 #include <array>
+#include <cmath>
 #include <cstddef>
 #include <cstdint>
 #include <functional>
@@ -207,9 +208,21 @@ Input primary_input(Quantity q);
 // first form ("outlet.temperature", "mass_flow"), "efficiency" for the efficiency.
 std::string_view quantity_key(Quantity q);
 
+// True when `value` [SI] lies in the range `input` accepts: the one test of every input's
+// range, which value_problem() puts into words.
+inline bool value_acceptable(Input input, double value) {
+  if (!std::isfinite(value)) return false;
+  switch (spec(input).accepts) {
+    case Accepts::positive: return value > 0;
+    case Accepts::fraction: return value > 0 && value <= 1;
+    case Accepts::unit_closed: return value >= 0 && value <= 1;
+    case Accepts::any: return true;
+  }
+  return true;
+}
+
 // The problem with `value` [SI] for `input` ("must be above 0 and at most 1, got 1.0000001"),
-// or "" when it is acceptable. The one check of every input's range: the case reader, the
-// batch rows and the solver all use it.
+// or "" when value_acceptable(). The case reader, the batch rows and the solver all use it.
 std::string value_problem(Input input, double value);
 
 // The first problem with a rating input, or "": a quantity given in two forms ("mass_flow
@@ -218,6 +231,9 @@ std::string value_problem(Input input, double value);
 // not a compressor, an exit width without the tip diameter. The solver refuses such an input;
 // readers check with it first, so that a file's problems show before any rating.
 std::string input_problem(const RatingInput& in);
+// True when input_problem(in) is "", found without building a message (the solver asks it of
+// every rating); `quantities` then holds a bit, 1 << Quantity, for each of the seven given.
+bool input_acceptable(const RatingInput& in, unsigned& quantities);
 
 // The value of `input` in `in`, empty when not given (always empty for the barometer).
 inline std::optional<double> given(const RatingInput& in, Input input) {

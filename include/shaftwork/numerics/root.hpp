@@ -32,6 +32,7 @@
 
 #include <cstdint>
 #include <functional>
+#include <optional>
 #include <string>
 
 namespace shaftwork::numerics {
@@ -65,6 +66,17 @@ struct ValueAndSlope {
 template <class F>
 RootResult newton_root(F&& f, double x0, double low, double high, const char* what,
                        const RootOptions& options = {});
+
+// Newton's method for an f known to rise through one root in [low, high], from a start x0
+// inside it that is usually close (an interpolated inverse): the steps of newton_root from
+// x0, without evaluating f at the ends first. Returns the root newton_root returns, or empty
+// where newton_root would bisect towards an end of the bracket, meet a non-finite f, or
+// spend the budget; the caller then calls newton_root, which takes the same steps with its
+// checks. (A bisection between two points already evaluated is taken, as newton_root takes
+// it.) Nothing is checked about the bracket: where f(low) or f(high) is exactly 0,
+// newton_root returns that end and this the Newton estimate beside it (within the tolerance).
+template <class F>
+std::optional<double> newton_from_start(F&& f, double x0, double low, double high, const RootOptions& options);
 
 // newton_root(...).x with a relative tolerance alone: the spelling the property models use.
 template <class F>
