@@ -19,6 +19,7 @@
 # Tools: shaftwork with all cores, with --jobs 1, with --columns efficiency.isentropic,power;
 # awk; pandas unless PANDAS=0.
 source "$(dirname "$0")/batch_log.bash"
+source "$(dirname "$0")/paired_rounds.bash"
 repeats=${REPEATS:-5}
 pandas=${PANDAS:-1}
 
@@ -60,13 +61,7 @@ if [ "$pandas" = 1 ]; then
   commands+=("/usr/bin/python3 '$work/closed_form.py' '$work/log.csv' '$work/pandas.csv'")
 fi
 
-# One line per run in $work/times: tool index, wall s, CPU s, peak RSS kB.
-: >"$work/times"
-for _ in $(seq "$repeats"); do
-  for i in "${!commands[@]}"; do
-    /usr/bin/time -f "$i %e %U %S %M" -a -o "$work/times" sh -c "${commands[$i]}"
-  done
-done
+paired_rounds "$repeats" "$work/times" "${commands[@]}"
 
 # Every row rated, and the same output whatever the number of threads.
 ok_rows=$(grep -c ',ok,' "$work/shaftwork.csv" || true)
@@ -85,7 +80,6 @@ echo
 for i in "${!names[@]}"; do
   awk -v i="$i" '$1 == i { print $2, $3 + $4, $5 }' "$work/times" >"$work/t$i"
 done
-median() { sort -g | awk '{ v[NR] = $1 } END { print (NR % 2) ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2 }'; }
 printf "%-50s %8s %8s %12s %8s %10s %10s\n" "tool" "wall s" "CPU s" "rows/s" "RSS MB" "awk/this" "awk CPU/"
 awk_wall=$(cut -d' ' -f1 "$work/t3" | median)
 awk_cpu=$(cut -d' ' -f2 "$work/t3" | median)

@@ -14,6 +14,7 @@
 # Figures: medians over REPEATS paired rounds (default 5) of the wall and CPU time (user +
 # system) from /usr/bin/time, per tool, and the CPU time per row with --jobs 1.
 set -eu
+source "$(dirname "$0")/paired_rounds.bash"
 bin=${1:-build/shaftwork}
 rows=${2:-2000}
 repeats=${REPEATS:-5}
@@ -39,19 +40,13 @@ names=("Peng-Robinson, --jobs 1" "NASA ideal gas, --jobs 1" "Peng-Robinson, all 
 commands=("'$bin' rate '$work/log.csv' --case '$work/peng-robinson.json' --quiet --jobs 1 -o '$work/pr.csv'"
           "'$bin' rate '$work/log.csv' --case '$work/nasa-polynomial.json' --quiet --jobs 1 -o '$work/ideal.csv'"
           "'$bin' rate '$work/log.csv' --case '$work/peng-robinson.json' --quiet -o '$work/pr2.csv'")
-: >"$work/times"
-for _ in $(seq "$repeats"); do
-  for i in "${!commands[@]}"; do
-    /usr/bin/time -f "$i %e %U %S" -a -o "$work/times" sh -c "${commands[$i]}"
-  done
-done
+paired_rounds "$repeats" "$work/times" "${commands[@]}"
 rated=$(grep -c ',ok,' "$work/pr.csv" || true)
 cmp -s "$work/pr.csv" "$work/pr2.csv" || { echo "jobs 1 and all cores differ" >&2; exit 1; }
 
 echo "machine:  $(lscpu | sed -n 's/^Model name: *//p' | head -n 1), $(nproc) cores, load $(cut -d' ' -f1-3 /proc/loadavg)"
 echo "rows:     $rows ($rated rated on Peng-Robinson), medians of $repeats paired rounds"
 echo
-median() { sort -g | awk '{ v[NR] = $1 } END { print (NR % 2) ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2 }'; }
 printf "%-32s %8s %8s %14s\n" "run" "wall s" "CPU s" "CPU us/row"
 for i in "${!names[@]}"; do
   wall=$(awk -v i="$i" '$1 == i { print $2 }' "$work/times" | median)
