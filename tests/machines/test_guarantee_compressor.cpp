@@ -133,14 +133,25 @@ TEST_CASE("fan-law round trip: test speed to rated and back returns the test poi
   CHECK(converted(back, "head.polytropic") == Approx(t.rating.head_polytropic).epsilon(1e-12));
 }
 
+// Three points of a curve at 150 rev/s, and a guaranteed flow a quarter of the way from
+// the second to the third.
+struct ThreePoints {
+  double N = 150;
+  std::vector<TestPoint> pts;
+  double q_g = 0;
+};
+ThreePoints three_points() {
+  ThreePoints t;
+  t.pts = {point("a", 100e3, 293.15, 270e3, 0.78, 2.6, t.N), point("b", 100e3, 293.15, 250e3, 0.80, 3.0, t.N),
+           point("c", 100e3, 293.15, 220e3, 0.77, 3.4, t.N)};
+  const double q_b = *t.pts[1].rating.volume_flow, q_c = *t.pts[2].rating.volume_flow;
+  t.q_g = q_b + 0.25 * (q_c - q_b);
+  return t;
+}
+
 TEST_CASE("several points make a curve read at the guaranteed flow by straight lines") {
-  const double N = 150;
-  const std::vector<TestPoint> pts = {point("a", 100e3, 293.15, 270e3, 0.78, 2.6, N),
-                                      point("b", 100e3, 293.15, 250e3, 0.80, 3.0, N),
-                                      point("c", 100e3, 293.15, 220e3, 0.77, 3.4, N)};
   // Guarantee at the test's own speed and inlet: the converted points are the test points.
-  const double q_b = *pts[1].rating.volume_flow, q_c = *pts[2].rating.volume_flow;
-  const double q_g = q_b + 0.25 * (q_c - q_b);
+  const auto [N, pts, q_g] = three_points();
   Guarantee g = base_guarantee(N, 100e3, 293.15, q_g);
   g.value(Checked::efficiency_polytropic) = 0.78;
   const GuaranteeResult res = machines::judge(g, pts);
@@ -160,12 +171,7 @@ TEST_CASE("several points make a curve read at the guaranteed flow by straight l
 }
 
 TEST_CASE("the curves a chart draws: the converted points, the reading at Q_G, the discharge pressure as a head") {
-  const double N = 150;
-  const std::vector<TestPoint> pts = {point("a", 100e3, 293.15, 270e3, 0.78, 2.6, N),
-                                      point("b", 100e3, 293.15, 250e3, 0.80, 3.0, N),
-                                      point("c", 100e3, 293.15, 220e3, 0.77, 3.4, N)};
-  const double q_b = *pts[1].rating.volume_flow, q_c = *pts[2].rating.volume_flow;
-  const double q_g = q_b + 0.25 * (q_c - q_b);
+  const auto [N, pts, q_g] = three_points();
   Guarantee g = base_guarantee(N, 100e3, 293.15, q_g);
   g.value(Checked::outlet_pressure) = 2.4e5;
   g.tolerance[static_cast<std::size_t>(Checked::outlet_pressure)] = machines::Tolerance{-2.0, 5.0};
