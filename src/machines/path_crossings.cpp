@@ -358,16 +358,33 @@ void PathSolver::split(std::size_t k, double x, const Crossing* crossing) {
   // A part that takes the other form is put in it at once, from exact states: a polynomial
   // must never mix the two.
   for (Segment* part : {&first, &second}) {
-    if (part->form == whole.form) continue;
-    for (std::size_t i = part == &second ? 1 : 0; i <= kLast; ++i) {
-      Node& node = part->nodes[i];
-      evaluate_at(node, part->form, whole.form, node.y, node.x, part->form == Form::enthalpy);
-    }
+    if (part->form != whole.form) put_in_form(*part, part->form, whole.form, part == &second ? 1 : 0);
   }
   refresh_saturation_line(second);
   segments_[k] = first;
   segments_.insert(segments_.begin() + static_cast<std::ptrdiff_t>(k) + 1, second);
   corrections_.insert(corrections_.begin() + static_cast<std::ptrdiff_t>(k) + 1, corrections_[k]);
+  // The segments beyond, up to the next crossing, lie on the same side of the saturation line
+  // as `second` and take its form too (the first path's cuts do not know where the fluid turns
+  // wet: a wet segment left in the entropy form would carry IF97's 3e-5 inconsistency of
+  // T ds = dh - v dp into the path).
+  if (crossing == nullptr || !crossing->saturation) return;
+  for (std::size_t j = k + 2; j < segments_.size() && !segments_[j].crossing_start; ++j) {
+    Segment& later = segments_[j];
+    if (later.form == second.form) continue;
+    put_in_form(later, second.form, later.form, 0);
+    refresh_saturation_line(later);
+  }
+}
+
+// Puts the nodes of `seg` from index `first` on, now in form `from`, in form `to` from exact
+// states.
+void PathSolver::put_in_form(Segment& seg, Form to, Form from, std::size_t first) {
+  for (std::size_t i = first; i <= kLast; ++i) {
+    Node& node = seg.nodes[i];
+    evaluate_at(node, to, from, node.y, node.x, to == Form::enthalpy);
+  }
+  seg.form = to;
 }
 
 // A saturation crossing at the end of `seg` records the saturated value in the segment's form:

@@ -63,6 +63,11 @@ std::vector<PathCase> if97_cases() {
       {"compressor at 1 % efficiency, small ratio", w.from_pt(1e5, 378.15), 1.01e5, 0.01},
       {"turbine at 2 % efficiency (nearly a throttle)", w.from_pt(5e6, 700), 1e6, 0.02},
       {"fan, pressure ratio 1.0001", w.from_pt(1e5, 400), 1.0001e5, 0.7},
+      // The first path's cut (ln p halfway) lies in the wet region: the segment beyond the
+      // saturation crossing must take the enthalpy form (it kept the entropy form: off by
+      // 3.6e-7 of the enthalpy change; IF97 sweep, seed 13).
+      {"turbine 128 bar 678 K to 4 kPa, wet over more than half the path",
+       w.from_pt(12820510.872953774, 677.82355147221597), 4084.4625055001247, 0.80116933450113947},
   };
 }
 
