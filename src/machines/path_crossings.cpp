@@ -358,7 +358,9 @@ void PathSolver::split(std::size_t k, double x, const Crossing* crossing) {
   // A part that takes the other form is put in it at once, from exact states: a polynomial
   // must never mix the two.
   for (Segment* part : {&first, &second}) {
-    if (part->form != whole.form) put_in_form(*part, part->form, whole.form, part == &second ? 1 : 0);
+    if (part->form != whole.form) {
+      put_in_form(*part, part->form, whole.form, part == &second ? 1 : 0, part->form == Form::enthalpy);
+    }
   }
   refresh_saturation_line(second);
   segments_[k] = first;
@@ -372,17 +374,17 @@ void PathSolver::split(std::size_t k, double x, const Crossing* crossing) {
   for (std::size_t j = k + 2; j < segments_.size() && !segments_[j].crossing_start; ++j) {
     Segment& later = segments_[j];
     if (later.form == second.form) continue;
-    put_in_form(later, second.form, later.form, 0);
+    put_in_form(later, second.form, later.form, 0, second.form == Form::enthalpy);
     refresh_saturation_line(later);
   }
 }
 
 // Puts the nodes of `seg` from index `first` on, now in form `from`, in form `to` from exact
-// states.
-void PathSolver::put_in_form(Segment& seg, Form to, Form from, std::size_t first) {
+// states (`wet`: the nodes are likely wet, their saturation line is tried first).
+void PathSolver::put_in_form(Segment& seg, Form to, Form from, std::size_t first, bool wet) {
   for (std::size_t i = first; i <= kLast; ++i) {
     Node& node = seg.nodes[i];
-    evaluate_at(node, to, from, node.y, node.x, to == Form::enthalpy);
+    evaluate_at(node, to, from, node.y, node.x, wet);
   }
   seg.form = to;
 }
@@ -406,8 +408,7 @@ void PathSolver::take_crossing_form(std::size_t k) {
   for (std::size_t j : {k, k + 1}) {
     Segment& seg = segments_[j];
     if (seg.form == Form::enthalpy) continue;
-    for (Node& node : seg.nodes) evaluate_at(node, Form::enthalpy, seg.form, node.y, node.x, false);
-    seg.form = Form::enthalpy;
+    put_in_form(seg, Form::enthalpy, seg.form, 0, false);
     refresh_saturation_line(seg);
   }
   segments_[k].nodes[kLast].evaluated = false;

@@ -157,7 +157,7 @@ class PathSolver {
   std::optional<double> search_crossing(Crossing& c, const PathView& path, double old, const double (&reach)[2]);
   void split(std::size_t k, double x, const Crossing* crossing);
   void take_crossing_form(std::size_t k);
-  void put_in_form(Segment& seg, Form to, Form from, std::size_t first);
+  void put_in_form(Segment& seg, Form to, Form from, std::size_t first, bool wet);
   void refresh_saturation_line(Segment& seg) const;
   void move_boundary(std::size_t k, double x);
   void carry_over(Segment& seg, const Segment& old, std::size_t first) const;
