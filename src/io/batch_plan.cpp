@@ -83,6 +83,8 @@ InputColumn input_column(std::size_t i, const std::string& header, const InputSp
   c.input = spec.input;
   c.dimension = spec.dimension;
   c.unit = std::string(unit);
+  c.field = spec.field;
+  c.plain = plainly_acceptable_range(spec.input);
   if (unit.empty()) {
     if (c.dimension != Dimension::fraction) {
       fail(fmt::format("a {} needs its unit in square brackets, as in \"{} [{}]\"", units::dimension_name(c.dimension),

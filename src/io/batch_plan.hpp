@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "shaftwork/io/batch.hpp"
+#include "shaftwork/io/case_reader.hpp"
 #include "shaftwork/io/result_keys.hpp"
 #include "shaftwork/machines/inputs.hpp"
 
@@ -25,6 +26,10 @@ struct InputColumn {
   double scale = 1, offset = 0, factor = 1;
   bool gauge = false;
   bool vacuum = false;  // a reading below the barometer (inHgV): never negative
+  // Where the SI value goes (nullptr: the barometer), and the values that need no further
+  // check (plainly_acceptable_range): a cell's common case at a glance.
+  std::optional<double> machines::RatingInput::*field = nullptr;
+  PlainRange plain;
 };
 
 // A column that states the uncertainty of a case value, "uncertainty.outlet.temperature [K]":

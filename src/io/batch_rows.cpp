@@ -242,7 +242,8 @@ bool RowRater::apply_cells(std::size_t line) {
   if (plan_.id_index) id_ = record_.fields[*plan_.id_index];
   barometer_ = shared_.templ.input.barometer();
   for (const InputColumn& c : plan_.inputs) {
-    if (!apply(c, record_.fields[c.index], line)) return false;
+    const std::string_view cell = record_.fields[c.index];
+    if (!apply_plain(c, cell) && !apply(c, cell, line)) return false;
   }
   if (plan_.has_barometer_column) {
     // The template's gauge readings, read against this row's barometer.
@@ -276,6 +277,20 @@ bool RowRater::apply_uncertainties(std::size_t line) {
   return true;
 }
 
+// A log's common cell, in full: a plain decimal whose value is in its column's plain range
+// (which implies the units layer's domain, the factor being positive), not a negative vacuum
+// reading, not the barometer. False for any other cell, which apply() takes from the start.
+// Inline and without calls: every cell of a batch comes here first.
+inline bool RowRater::apply_plain(const InputColumn& c, std::string_view cell) {
+  double x = 0;
+  if (!parse_plain_decimal(cell, x)) return false;
+  const double si = (c.scale * x + c.offset + (c.gauge ? barometer_ : 0.0)) * c.factor + 0.0;  // as apply()
+  if (!c.plain.contains(si) || (c.vacuum && x < 0) || !c.field) return false;
+  if (plan_.uncertainty) readings_[static_cast<std::size_t>(c.input)] = std::fabs(c.scale * x) * c.factor;
+  input_.*c.field = si;
+  return true;
+}
+
 bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t line) {
   double x = 0;
   std::string_view cell = raw;
@@ -287,25 +302,32 @@ bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t lin
       return false;
     }
   }
-  double si = c.scale * x + c.offset + (c.gauge ? barometer_ : 0.0);
-  if (!c.unit.empty() && (!within_domain(c.dimension, si) || (c.vacuum && x < 0))) {
-    error_ = fmt::format("line {}, column \"{}\": {}", line, c.header, domain_problem(c, cell));
-    return false;
-  }
-  readings_[static_cast<std::size_t>(c.input)] = std::fabs(c.scale * x) * c.factor;
-  si = si * c.factor + 0.0;  // as units::parse: no -0.0
-  if (!plainly_acceptable(c.input, si)) {
-    if (const std::string problem = given_value_problem(c.input, si, c.unit); !problem.empty()) {
+  const double in_unit_si = c.scale * x + c.offset + (c.gauge ? barometer_ : 0.0);
+  if (plan_.uncertainty) readings_[static_cast<std::size_t>(c.input)] = std::fabs(c.scale * x) * c.factor;
+  const double si = in_unit_si * c.factor + 0.0;  // as units::parse: no -0.0
+  if (!c.plain.contains(si) || (c.vacuum && x < 0)) {
+    if (const std::string problem = value_problem(c, cell, x, in_unit_si, si); !problem.empty()) {
       error_ = fmt::format("line {}, column \"{}\": {}", line, c.header, problem);
       return false;
     }
   }
-  if (c.input == Input::barometric_pressure) {
-    barometer_ = si;
+  if (c.field) {
+    input_.*c.field = si;
   } else {
-    input_.*machines::spec(c.input).field = si;
+    barometer_ = si;
   }
   return true;
+}
+
+// Why the value of a cell is refused ("" when it is not): the units layer's domain of the
+// value in SI of the column's unit (a head in m: a length), then the input's range and the
+// unit's sense.
+std::string RowRater::value_problem(const InputColumn& c, std::string_view cell, double x, double in_unit_si,
+                                    double si) const {
+  if (!c.unit.empty() && (!within_domain(c.dimension, in_unit_si) || (c.vacuum && x < 0))) {
+    return domain_problem(c, cell);
+  }
+  return given_value_problem(c.input, si, c.unit);
 }
 
 // The message of a cell that is not a number (parse_cell_number's `problem`).

@@ -70,9 +70,12 @@ class RowRater {
   void judge_guarantee(std::size_t line, RowCounts& counts);
   BatchPoint point_of(bool rated, std::size_t row) const;
   bool apply_cells(std::size_t line);
+  bool apply_plain(const InputColumn& c, std::string_view cell);
   bool apply(const InputColumn& c, std::string_view raw, std::size_t line);
   void refuse_cell(const InputColumn& c, std::string_view cell, std::string_view problem, std::size_t line);
   bool apply_uncertainties(std::size_t line);
+  std::string value_problem(const InputColumn& c, std::string_view cell, double x, double in_unit_si,
+                            double si) const;
   std::string domain_problem(const InputColumn& c, std::string_view cell) const;
   void write_csv_row(OutputBuffer& out, bool rated);
   void write_jsonl(OutputBuffer& out, bool rated, std::size_t line);

@@ -21,25 +21,23 @@ inline constexpr double kExactPowersOfTen[] = {1e0, 1e1, 1e2,  1e3,  1e4,  1e5, 
 inline bool parse_plain_decimal(std::string_view cell, double& x) {
   const char* p = cell.data();
   const char* const end = p + cell.size();
-  bool negative = false;
-  if (p < end && (*p == '-' || *p == '+')) negative = *p++ == '-';
+  const bool negative = p < end && *p == '-';
+  if (p < end && (*p == '-' || *p == '+')) ++p;
+  // The digits before the point, then those after it: two tight loops, no per-digit flags.
+  // More than 15 digits wrap `digits` around, and are refused below.
+  const auto digit = [](char c) { return static_cast<unsigned>(c - '0'); };
   std::uint64_t digits = 0;
-  int count = 0;
-  int decimals = 0;
-  bool point = false;
-  for (; p < end; ++p) {
-    const char c = *p;
-    if (c >= '0' && c <= '9') {
-      if (++count > 15) return false;
-      digits = digits * 10 + static_cast<std::uint64_t>(c - '0');
-      decimals += point;
-    } else if (c == '.' && !point) {
-      point = true;
-    } else {
-      return false;
-    }
+  const char* const first = p;
+  while (p < end && digit(*p) < 10) digits = digits * 10 + digit(*p++);
+  std::ptrdiff_t count = p - first;
+  std::ptrdiff_t decimals = 0;
+  if (p < end && *p == '.') {
+    const char* const fraction = ++p;
+    while (p < end && digit(*p) < 10) digits = digits * 10 + digit(*p++);
+    decimals = p - fraction;
+    count += decimals;
   }
-  if (count == 0) return false;
+  if (p != end || count == 0 || count > 15) return false;
   x = static_cast<double>(digits) / detail::kExactPowersOfTen[decimals];
   if (negative) x = -x;
   return true;

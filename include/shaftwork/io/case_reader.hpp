@@ -6,6 +6,7 @@
 // (isentropic). Values are read to SI here, keeping the text the user wrote.
 #pragma once
 
+#include <limits>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -38,13 +39,26 @@ const machines::InputSpec* find_case_input(std::string_view key);
 // The problem with a given value beyond machines::value_problem: an efficiency written as
 // "0.8 %" (a fraction in a percent column), a barometer in a gauge unit. "" when none.
 std::string given_value_problem(machines::Input input, double si, std::string_view unit);
-// True when given_value_problem(input, si, unit) is "" whatever the unit, found without a
-// call: a value in its range and at least 0.01 (no efficiency in % to doubt), for any input
-// but the barometer (whose unit is checked). A batch asks it of every cell, and
-// given_value_problem() only where it is false.
-inline bool plainly_acceptable(machines::Input input, double si) {
-  return si >= 0.01 && input != machines::Input::barometric_pressure && machines::value_acceptable(input, si);
+// The SI values for which given_value_problem(input, si, unit) is "" whatever the unit:
+// low <= si <= high, a value in its range and at least 0.01 (no efficiency in % to doubt),
+// finite; empty for the barometer (whose unit is checked). A batch tests every cell against
+// its column's range, and calls given_value_problem() only where it fails.
+struct PlainRange {
+  double low = 0, high = 0;
+  constexpr bool contains(double si) const { return si >= low && si <= high; }  // false for NaN
+};
+constexpr PlainRange plainly_acceptable_range(machines::Input input) {
+  constexpr double kLeast = 0.01;
+  if (input == machines::Input::barometric_pressure) return {1, 0};
+  switch (machines::spec(input).accepts) {
+    case machines::Accepts::fraction:
+    case machines::Accepts::unit_closed: return {kLeast, 1};
+    case machines::Accepts::positive:
+    case machines::Accepts::any: break;
+  }
+  return {kLeast, std::numeric_limits<double>::max()};
 }
+inline bool plainly_acceptable(machines::Input input, double si) { return plainly_acceptable_range(input).contains(si); }
 
 // The warning of a case that gives a gauge pressure but no site barometer.
 inline constexpr std::string_view kDefaultBarometerWarning =
