@@ -2,6 +2,7 @@
 // at all, and nothing but FILE touched.
 #pragma once
 
+#include <cstdint>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -47,13 +48,17 @@ class OutputFile final : public ByteSink {
   void open_temporary(const std::string& final_path, const struct ::stat* existing);
   void remove_temporary() noexcept;
   [[noreturn]] void fail(const char* step);
+  void start_writeback(bool all);
 
   std::string path_;     // as the user gave it, for messages
   std::string target_;   // the name renamed over (symbolic links followed); empty: written through
   std::string temp_;     // the temporary file, while there is one
   int fd_ = -1;
+  int replaced_fd_ = -1;  // the file the temporary one replaces, read-only, for a cache hint
   int signal_slot_ = -1;  // where the signal handler finds temp_
   std::optional<FdSink> sink_;
+  std::uint64_t written_ = 0;       // bytes written to the temporary file
+  std::uint64_t written_back_ = 0;  // of them, those whose writing to disk has been started
 };
 
 // Throws bad_input "OUTPUT: is also an input of this run (INPUT); the results would
