@@ -15,7 +15,7 @@ class OutputBuffer {
  public:
   // Room for n more bytes; write there, then commit(end).
   char* room(std::size_t n) {
-    if (size_ + n > capacity_) grow(size_ + n);
+    if (size_ + n > capacity_) [[unlikely]] grow(size_ + n);
     return data_.get() + size_;
   }
   void commit(const char* end) { size_ = static_cast<std::size_t>(end - data_.get()); }
@@ -47,7 +47,8 @@ class OutputBuffer {
   void clear() { size_ = 0; }
 
  private:
-  void grow(std::size_t needed) {
+  // Out of line, so that room() and the appends inline where rows are written.
+  [[gnu::noinline, gnu::cold]] void grow(std::size_t needed) {
     const std::size_t capacity = std::max(needed, 2 * capacity_ + 4096);
     std::unique_ptr<char[]> data(new char[capacity]);  // not zero-filled: written before read
     if (size_) std::memcpy(data.get(), data_.get(), size_);
