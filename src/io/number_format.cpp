@@ -1,6 +1,5 @@
 #include "shaftwork/io/number_format.hpp"
 
-#include <bit>
 #include <charconv>
 #include <cmath>
 #include <cstdint>
@@ -78,106 +77,33 @@ char* digits_before(char* end, std::uint64_t n) {
   return first;
 }
 
+}  // namespace
 
-// Up to sixteen bytes of text held in two words: text byte i is byte i % 8 of `low`
-// (i < 8) or of `high`, counting from the least significant byte. Digits are held as
-// their values 0-9 and turned into characters only at the end.
-struct Text16 {
-  std::uint64_t low;
-  std::uint64_t high;
-};
-
-// Bytes of '0' ^ value turn digit values into characters; kPointMark ^ '0' is '.'.
-constexpr std::uint64_t kZeroChars = 0x3030303030303030u;
-constexpr std::uint64_t kPointMark = 0x1e;
-
-// The ten digit values of 10^9 <= v < 10^10, the first digit in the lowest byte. The
-// last eight are split into halves, pairs and digits, each step in all lanes at once
-// (x * 10486 >> 20 is x / 100 for x < 10^4, x * 103 >> 10 is x / 10 for x < 100); the
-// halves both come from v, so that the steps wait on one division, not two.
-Text16 ten_digit_values(std::uint64_t v) {
-  const auto first_two = static_cast<std::uint32_t>(v / 100000000u);
-  const std::uint64_t middle = v / 10000u;
-  const std::uint64_t halves = (middle - std::uint64_t{first_two} * 10000) | ((v - middle * 10000) << 32);
-  const std::uint64_t hundreds = ((halves * 10486) >> 20) & 0x0000007f0000007fu;
-  const std::uint64_t pairs = hundreds | ((halves - hundreds * 100) << 16);
-  const std::uint64_t tens = ((pairs * 103) >> 10) & 0x000f000f000f000fu;
-  const std::uint64_t last_eight = tens | ((pairs - tens * 10) << 8);
-  const std::uint32_t first = (first_two * 103) >> 10;
-  return {first | (std::uint64_t{first_two - first * 10} << 8) | (last_eight << 16), last_eight >> 48};
-}
-
-// The text moved `bytes` (< 8) places toward its end, zeros coming in at the start.
-Text16 toward_end(Text16 t, int bytes) {
-  const int s = 8 * bytes;
-  return {t.low << s, (t.high << s) | ((t.low >> 1) >> (63 - s))};
-}
-
-// The text with a point mark put in at byte `at` (< 16), the bytes from there on moved
-// one place on (the sixteenth byte is lost).
-Text16 with_point_at(Text16 t, int at) {
-  if (at < 8) {
-    const std::uint64_t before = (std::uint64_t{1} << (8 * at)) - 1;
-    return {(t.low & before) | ((t.low & ~before) << 8) | (kPointMark << (8 * at)),
-            (t.high << 8) | (t.low >> 56)};
+char* format_significant(char* out, double value, int digits) {
+  if (digits < 1) digits = 1;
+  if (digits > 17) digits = 17;
+  if (value == 0) {
+    *out = '0';
+    return out + 1;
   }
-  const std::uint64_t before = (std::uint64_t{1} << (8 * (at - 8))) - 1;
-  return {t.low, (t.high & before) | ((t.high & ~before) << 8) | (kPointMark << (8 * (at - 8)))};
-}
-
-// The place of the last nonzero byte of ten digit values (the first not zero). Without a
-// bit-scan instruction (slow on some processors without flags beyond x86-64): the
-// binary exponent of the word as a double. Its bytes are at most 9, so it is below 2^60
-// and no rounding of the conversion reaches the next power of two.
-int last_nonzero(Text16 ten) {
-  if (ten.high != 0) return (ten.high >> 8) != 0 ? 9 : 8;
-  const auto bits = std::bit_cast<std::uint64_t>(static_cast<double>(static_cast<std::int64_t>(ten.low)));
-  return static_cast<int>((bits >> 52) - 1023) >> 3;
-}
-
-// Writes the sixteen bytes of `t` as characters at out[0..16).
-void store_chars(char* out, Text16 t) {
-  const std::uint64_t words[2] = {t.low ^ kZeroChars, t.high ^ kZeroChars};
-  if constexpr (std::endian::native == std::endian::little) {
-    std::memcpy(out, words, 16);
+  const double a = std::fabs(value);
+  if (!(a >= 1e-5 && a < 1e15)) {
+    return std::to_chars(out, out + kMaxNumberChars, value, std::chars_format::general, digits).ptr;
+  }
+  if (value < 0) *out++ = '-';
+  const int e = decimal_exponent(a);
+  int decimals = digits - 1 - e;  // digits after the decimal point
+  int trailing_zeros = 0;         // zeros of the integer part beyond `digits` significant ones
+  double scaled = 0;
+  if (decimals >= 0) {
+    scaled = a * power_of_ten(decimals);  // decimals <= 16 + 5: an exact power
   } else {
-    for (int i = 0; i < 16; ++i) out[i] = static_cast<char>(words[i / 8] >> (8 * (i % 8)));
+    trailing_zeros = -decimals;
+    decimals = 0;
+    scaled = a / power_of_ten(trailing_zeros);
   }
-}
+  const auto n = static_cast<std::uint64_t>(static_cast<std::int64_t>(scaled + 0.5));  // < 2^63
 
-// 10^k for k = 0..10 as integers.
-constexpr std::uint64_t kIntegerPowers[] = {1,         10,         100,        1000,
-                                            10000,     100000,     1000000,    10000000,
-                                            100000000, 1000000000, 10000000000};
-
-// format_significant's text of n, 10^(digits-1) <= n < 10^digits (digits <= 10), with
-// `decimals` of its digits after the point (trailing zeros of those dropped) and, where
-// decimals is 0, `trailing_zeros` zeros after it; at most 16 characters, at most 4
-// zeros between the point and n's digits. Built in two words and stored at once:
-// sixteen bytes are written at `out`.
-char* write_short(char* out, std::uint64_t n, int digits, int decimals, int trailing_zeros) {
-  // n's digits, then zeros, ten in all: the first always at byte 0.
-  const Text16 ten = ten_digit_values(n * kIntegerPowers[10 - digits]);
-  if (decimals == 0) {
-    store_chars(out, ten);  // the trailing zeros come in as zeros
-    return out + digits + trailing_zeros;
-  }
-  const int last = last_nonzero(ten);
-  const int point = digits - decimals;  // digits before the point
-  if (point > 0) {
-    store_chars(out, with_point_at(ten, point));
-    return out + (last < point ? point : last + 2);  // no bare point
-  }
-  // "0.", then -point zeros, then the digits.
-  Text16 text = toward_end(ten, 2 - point);
-  text.low |= kPointMark << 8;
-  store_chars(out, text);
-  return out + (2 - point + last + 1);
-}
-
-// format_significant's text of n (any size) with `decimals` digits after the point and
-// `trailing_zeros` zeros after n where decimals is 0: the general case, digits counted out.
-[[gnu::noinline]] char* write_long(char* out, std::uint64_t n, int decimals, int trailing_zeros) {
   // The digits end at the middle of the buffer; the copies below move a fixed 24 bytes
   // (a few moves, no call) and then count only the digits that belong.
   char buffer[2 * kCopy];
@@ -215,66 +141,6 @@ char* write_short(char* out, std::uint64_t n, int digits, int decimals, int trai
   for (int i = kept; i < decimals; ++i) *out++ = '0';
   std::memcpy(out, first, kCopy);
   return out + kept;
-}
-
-// n: `a` (1e-5 <= a < 1e15, decimal exponent e) rounded to `digits` significant digits,
-// as an integer with `decimals` of them after the point, or, where the digits end before
-// the point, `trailing_zeros` zeros after them (decimals 0). The product (or quotient) by
-// the power of ten is rounded to a double, then rounded half up to an integer.
-std::uint64_t scaled_digits(double a, int digits, int& decimals, int& trailing_zeros) {
-  const int e = decimal_exponent(a);
-  decimals = digits - 1 - e;
-  trailing_zeros = 0;
-  double scaled = 0;
-  if (decimals >= 0) {
-    scaled = a * power_of_ten(decimals);  // decimals <= 16 + 5: an exact power
-  } else {
-    trailing_zeros = -decimals;
-    decimals = 0;
-    scaled = a / power_of_ten(trailing_zeros);
-  }
-  return static_cast<std::uint64_t>(static_cast<std::int64_t>(scaled + 0.5));  // < 2^63
-}
-
-// format_significant for what its short path leaves: digits outside 1..10, zero, other
-// magnitudes (std::to_chars) and values that are not finite. Out of line, so that the
-// short path keeps its registers.
-[[gnu::noinline]] char* format_other(char* out, double value, int digits) {
-  if (digits < 1) digits = 1;
-  if (digits > 17) digits = 17;
-  if (value == 0) {
-    *out = '0';
-    return out + 1;
-  }
-  const double a = std::fabs(value);
-  if (!(a >= 1e-5 && a < 1e15)) {
-    return std::to_chars(out, out + kMaxNumberChars, value, std::chars_format::general, digits).ptr;
-  }
-  if (value < 0) *out++ = '-';
-  int decimals = 0;
-  int trailing_zeros = 0;
-  const std::uint64_t n = scaled_digits(a, digits, decimals, trailing_zeros);
-  return write_long(out, n, decimals, trailing_zeros);
-}
-
-}  // namespace
-
-char* format_significant(char* out, double value, int digits) {
-  const double a = std::fabs(value);
-  if (!(a >= 1e-5 && a < 1e15) || static_cast<unsigned>(digits - 1) >= 10) {
-    return format_other(out, value, digits);
-  }
-  *out = '-';  // overwritten by the digits where value > 0
-  out += value < 0;
-  int decimals = 0;
-  int trailing_zeros = 0;
-  const std::uint64_t n = scaled_digits(a, digits, decimals, trailing_zeros);
-  // `digits` digits, built in registers; n == 10^digits, where rounding carried into a
-  // new decade, counted out. 1e-5 <= a < 1e15 keeps write_short's bounds: decimals
-  // <= 9 + 5, and digits + trailing_zeros = e + 1 <= 15.
-  const std::uint64_t lowest = kIntegerPowers[digits - 1];
-  if (n - lowest >= 9 * lowest) return write_long(out, n, decimals, trailing_zeros);
-  return write_short(out, n, digits, decimals, trailing_zeros);
 }
 
 void append_significant(std::string& text, double value, int digits) {
