@@ -165,7 +165,7 @@ std::string problem_with(double v, int digits) {
   const std::string reference = printf_laid_out(v, digits);
   if (ours == reference) return "";
   const double a = std::fabs(v);
-  if (!(a >= 1e-5 && a < 1e15) && !std::isnan(v)) return reason + ours + " where printf wrote " + reference;
+  if (!(a >= 1e-5 && a < 1e15)) return reason + ours + " where printf wrote " + reference;
   // The units of the last digit from v's exponent; 40 digits of v's expansion for the tie.
   char expansion[96];
   std::snprintf(expansion, sizeof expansion, "%.40e", a);
