@@ -15,8 +15,15 @@ inline constexpr int kMaxNumberChars = 64;
 // "101325", "-40.5"); 1e-5 <= |value| < 1e15 is written without an exponent, other
 // magnitudes as std::to_chars writes them in general form ("1.5e-07"). Zero is "0";
 // a value that is not finite is written as std::to_chars writes it ("nan", "inf").
-// Integer arithmetic on a scaled value, some five times faster than printf's %.10g
-// for the same text in all but the last digit of a tie.
+// Integer arithmetic on a scaled value, some five times faster than printf's %.10g.
+// The digits are printf's %.*g digits except near a tie: |value| * 10^k (k = digits - 1 - e,
+// 10^e <= |value| < 10^(e+1)) is rounded to a double, then half up to an integer, where
+// printf rounds the exact value half to even. Up to 15 digits the two differ only where
+// the exact product lies within its double's rounding error (2^-53 of it) of a half unit,
+// and then by one unit in the last digit (for 10 digits: within about 1e-6 of a unit of
+// a tie); for 16 and 17 digits the product's rounding to the double grid (1 to 16 units)
+// can move the last digit by up to 1 + 2^-53 n units (n the digits as an integer).
+// tests/io/test_number_format.cpp holds it to these bounds and to printf everywhere else.
 char* format_significant(char* out, double value, int digits);
 
 // Appends format_significant's text to `text`.
