@@ -14,7 +14,9 @@
 //  * the coefficients are pre-scaled for Horner evaluation, and a table of T, S°/R, H°/R
 //    and cp°/R on a grid (about 4 % steps in T, joints included) gives the inverse solves
 //    a starting point from cubic Hermite interpolation of T(S°) or T(H°): typically within
-//    1e-8 relative, so the safeguarded Newton iteration needs two steps.
+//    1e-8 relative, so the safeguarded Newton iteration needs two steps. Each cell also holds
+//    ln of its middle temperature, to long-double accuracy, for the guess's ln T
+//    (MixtureCell::log_of in ideal_gas_mixture_data.hpp).
 #include "shaftwork/fluids/ideal_gas_mixture.hpp"
 
 #include <algorithm>
@@ -207,7 +209,11 @@ void build_grid(IdealGasMixtureData& d) {
       const MixtureValues b = evaluate(piece, t1);
       check_grid_point(d, t0, a);
       check_grid_point(d, t1, b);
-      d.cells.push_back({t0, t1, a.s_r, b.s_r, t0 / a.cp_r, t1 / b.cp_r, a.h_r, b.h_r, 1.0 / a.cp_r, 1.0 / b.cp_r});
+      const double tm = 0.5 * (t0 + t1);
+      const long double ln_tm = std::log(static_cast<long double>(tm));  // 64-bit significand on x86-64
+      const auto ln_tm_high = static_cast<double>(ln_tm);
+      d.cells.push_back({t0, t1, a.s_r, b.s_r, t0 / a.cp_r, t1 / b.cp_r, a.h_r, b.h_r, 1.0 / a.cp_r, 1.0 / b.cp_r,
+                         tm, ln_tm_high, static_cast<double>(ln_tm - ln_tm_high)});
     }
   }
   // The search grids hold the values the state calls compute at the cell ends (at a joint,

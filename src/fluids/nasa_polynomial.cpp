@@ -26,6 +26,19 @@ using detail::MixtureValues;
 constexpr double kStandardPressure = IdealGasMixture::kStandardPressure;  // Pa
 constexpr double kEndSlack = 1e-12;  // relative rounding allowance at the range ends
 
+// ln(p/p°), remembered for the last pressure this thread asked about: a rating asks for
+// the outlet's state from (p2, T2) and then for the isentropic outlet from (p2, s1), or
+// the other way round. The same expression either way, so the same bits.
+double log_pressure_ratio(double p) {
+  thread_local double last_p = kStandardPressure;
+  thread_local double last_log = 0.0;
+  if (p != last_p) {
+    last_p = p;
+    last_log = std::log(p / kStandardPressure);
+  }
+  return last_log;
+}
+
 }  // namespace
 
 struct NasaPolynomialGas::Impl {
@@ -35,10 +48,10 @@ struct NasaPolynomialGas::Impl {
   const IdealGasMixtureData& d;
   std::optional<CompressibilityEstimator> z_estimate;  // for warnings where the ideal gas is off
 
-  State state(double p, double T) const { return state(p, T, std::log(p / kStandardPressure)); }
-  // log_p = ln(p/p°), when the caller has it already.
-  State state(double p, double T, double log_p) const {
-    const MixtureValues v = d.at(T);
+  State state(double p, double T) const { return state(p, T, log_pressure_ratio(p), std::log(T)); }
+  // log_p = ln(p/p°) and ln_t = ln T, when the caller has them already.
+  State state(double p, double T, double log_p, double ln_t) const {
+    const MixtureValues v = d.at(T, ln_t);
     const double R = d.gas_constant;
     State st;
     st.pressure = p;
@@ -71,7 +84,7 @@ State NasaPolynomialGas::from_ph(double p, double h) const {
   detail::check_pressure(p, d.label.c_str());
   detail::check_finite(h, "enthalpy", d.label.c_str());
   const double target = h / d.gas_constant;  // H°/R, K
-  const double T = d.temperature_for(target, false, kEndSlack * (std::fabs(target) + d.range.high),
+  const auto solved = d.solve_temperature(target, false, kEndSlack * (std::fabs(target) + d.range.high),
                                      [&](bool below) -> double {
                                        throw Error(ErrorKind::out_of_range,
                                                    fmt::format("{}: enthalpy {:.6g} J/kg needs a temperature {} "
@@ -79,16 +92,19 @@ State NasaPolynomialGas::from_ph(double p, double h) const {
                                                                d.label, h, below ? "below" : "above",
                                                                d.range.low, d.range.high));
                                      });
-  return impl_->state(p, T);
+  // The state takes ln T afresh (not solved.ln_t): from_ph is off the batch's hot path, and
+  // its states stay bit for bit what they were (a message quotes a difference of two
+  // enthalpies that rounding alone sets: tests/bad_input/huge-number.json).
+  return impl_->state(p, solved.t);
 }
 
 State NasaPolynomialGas::from_ps(double p, double s) const {
   const IdealGasMixtureData& d = impl_->d;
   detail::check_pressure(p, d.label.c_str());
   detail::check_finite(s, "entropy", d.label.c_str());
-  const double log_p = std::log(p / kStandardPressure);
+  const double log_p = log_pressure_ratio(p);
   const double target = s / d.gas_constant + log_p;  // S°/R at p°
-  const double T = d.temperature_for(target, true, kEndSlack * (std::fabs(target) + std::fabs(log_p) + 1.0),
+  const auto solved = d.solve_temperature(target, true, kEndSlack * (std::fabs(target) + std::fabs(log_p) + 1.0),
                                      [&](bool below) -> double {
                                        throw Error(ErrorKind::out_of_range,
                                                    fmt::format("{}: entropy {:.6g} J/(kg K) at {:.6g} Pa needs a "
@@ -96,7 +112,7 @@ State NasaPolynomialGas::from_ps(double p, double s) const {
                                                                d.label, s, p, below ? "below" : "above",
                                                                d.range.low, d.range.high));
                                      });
-  return impl_->state(p, T, log_p);
+  return impl_->state(p, solved.t, log_p, solved.ln_t);
 }
 
 std::string NasaPolynomialGas::description() const { return impl_->d.description; }
