@@ -15,7 +15,8 @@
 # Each tool reads the file and writes its CSV to a file in the same directory. The runs
 # are paired: each round runs every tool once, in turn, so that a busy machine slows them
 # alike; the figures are medians over `REPEATS` rounds (default 5) of the wall time and
-# the CPU time (user + system) from /usr/bin/time, whose peak resident memory is shown too.
+# the CPU time (user + system) from bench/timed_run.py, whose peak resident memory is shown too;
+# "awk/this" is the median over rounds of awk's time over the tool's in the same round.
 # Tools: shaftwork with all cores, with --jobs 1, with --columns efficiency.isentropic,power;
 # awk; pandas unless PANDAS=0.
 source "$(dirname "$0")/batch_log.bash"
@@ -75,18 +76,18 @@ if [ "$pandas" = 1 ]; then
 fi
 echo "rows:     $rows ($ok_rows rated by shaftwork), medians of $repeats paired rounds"
 echo
-# Medians per tool, and each tool's wall and CPU time over shaftwork's (all cores); the
-# awk line's ratios are shaftwork's lead.
+# Medians per tool, and awk's wall and CPU time over each tool's, the median of the rounds'
+# ratios (each round's runs one after another, so that the host's drifting speed cancels).
 for i in "${!names[@]}"; do
   awk -v i="$i" '$1 == i { print $2, $3 + $4, $5 }' "$work/times" >"$work/t$i"
 done
 printf "%-50s %8s %8s %12s %8s %10s %10s\n" "tool" "wall s" "CPU s" "rows/s" "RSS MB" "awk/this" "awk CPU/"
-awk_wall=$(cut -d' ' -f1 "$work/t3" | median)
-awk_cpu=$(cut -d' ' -f2 "$work/t3" | median)
 for i in "${!names[@]}"; do
   wall=$(cut -d' ' -f1 "$work/t$i" | median)
   cpu=$(cut -d' ' -f2 "$work/t$i" | median)
   rss=$(cut -d' ' -f3 "$work/t$i" | median)
-  awk -v n="${names[$i]}" -v w="$wall" -v c="$cpu" -v m="$rss" -v rows="$rows" -v aw="$awk_wall" -v ac="$awk_cpu" \
-    'BEGIN { printf "%-50s %8.3f %8.3f %12.0f %8.1f %10.2f %10.2f\n", n, w, c, rows / w, m / 1024, aw / w, ac / c }'
+  lead=$(paired_ratio "$work/times" "${#names[@]}" 3 "$i" 2)
+  lead_cpu=$(paired_ratio "$work/times" "${#names[@]}" 3 "$i" 3)
+  awk -v n="${names[$i]}" -v w="$wall" -v c="$cpu" -v m="$rss" -v rows="$rows" -v l="$lead" -v lc="$lead_cpu" \
+    'BEGIN { printf "%-50s %8.3f %8.3f %12.0f %8.1f %10.2f %10.2f\n", n, w, c, rows / w, m / 1024, l, lc }'
 done

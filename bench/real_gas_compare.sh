@@ -12,7 +12,7 @@
 # data/fluids.txt. Each row is rated with its measured outlet temperature: both
 # efficiencies, both heads, the Schultz values on Peng-Robinson, and the power balance.
 # Figures: medians over REPEATS paired rounds (default 5) of the wall and CPU time (user +
-# system) from /usr/bin/time, per tool, and the CPU time per row with --jobs 1.
+# system) from bench/timed_run.py, per tool, and the CPU time per row with --jobs 1.
 set -eu
 source "$(dirname "$0")/paired_rounds.bash"
 bin=${1:-build/shaftwork}
