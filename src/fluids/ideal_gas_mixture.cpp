@@ -14,7 +14,9 @@
 //  * the coefficients are pre-scaled for Horner evaluation, and a table of T, S°/R, H°/R
 //    and cp°/R on a grid (about 4 % steps in T, joints included) gives the inverse solves
 //    a starting point from cubic Hermite interpolation of T(S°) or T(H°): typically within
-//    1e-8 relative, so the safeguarded Newton iteration needs two steps. Each cell also holds
+//    1e-8 relative, so the safeguarded Newton iteration needs two steps, and its second
+//    evaluation is mostly spared: a bound on the functions' curvature (bound_curvature) shows
+//    when the first step has left T within rounding of the root. Each cell also holds
 //    ln of its middle temperature, to long-double accuracy, for the guess's ln T
 //    (MixtureCell::log_of in ideal_gas_mixture_data.hpp).
 #include "shaftwork/fluids/ideal_gas_mixture.hpp"
@@ -195,6 +197,33 @@ void check_grid_point(const IdealGasMixtureData& d, double t, const MixtureValue
   }
 }
 
+// d cp°/R / dT of a piece (the derivative of its Horner form for cp°/R).
+double cp_slope(const MixturePiece& q, double T) {
+  const auto& c = q.c;
+  const double inv_t = 1.0 / T;
+  return -inv_t * inv_t * (2 * c[0] * inv_t + c[1]) + c[3] + T * (2 * c[4] + T * (3 * c[5] + T * 4 * c[6]));
+}
+
+// The curvature bounds of the inverse solves (IdealGasMixtureData::curvature_s, _h): the
+// largest of (1/2) |cp'/cp - 1/T| and (1/2) |cp'/cp| at kCurvatureSamples points a cell,
+// doubled (the functions are smooth within a piece, whose ends are sampled too).
+void bound_curvature(IdealGasMixtureData& d) {
+  constexpr int kCurvatureSamples = 16;
+  constexpr double kMargin = 2.0;
+  double ks = 0, kh = 0;
+  for (const detail::MixtureCell& cell : d.cells) {
+    const MixturePiece& piece = d.piece_at(0.5 * (cell.t0 + cell.t1));
+    for (int i = 0; i <= kCurvatureSamples; ++i) {
+      const double T = cell.t0 + (cell.t1 - cell.t0) * i / kCurvatureSamples;
+      const double log_slope = cp_slope(piece, T) / evaluate(piece, T).cp_r;
+      ks = std::max(ks, 0.5 * std::fabs(log_slope - 1.0 / T));
+      kh = std::max(kh, 0.5 * std::fabs(log_slope));
+    }
+  }
+  d.curvature_s = kMargin * ks;
+  d.curvature_h = kMargin * kh;
+}
+
 // The grid for starting guesses: cells of about kGridRatio in T within each piece.
 void build_grid(IdealGasMixtureData& d) {
   for (const MixturePiece& piece : d.pieces) {
@@ -260,6 +289,7 @@ IdealGasMixture::IdealGasMixture(const std::vector<Component>& components, Compo
   set_composition(*d, kept, basis, model);
   fold(*d);
   build_grid(*d);
+  bound_curvature(*d);
   data_ = std::move(d);
 }
 

@@ -130,6 +130,11 @@ struct IdealGasMixtureData {
   std::string description;
   std::string solve_h_label;   // for no_convergence messages
   std::string solve_s_label;
+  // Bounds on |f''| / (2 |f'|) of the inverse solves' functions, S°/R(T) and H°/R(T), over
+  // the whole range (numerics::RootOptions::curvature): (1/2) |cp°'/cp° - 1/T| and
+  // (1/2) |cp°'/cp°|, sampled densely when the grid is built, with a margin.
+  double curvature_s = 0;
+  double curvature_h = 0;
 
   const MixturePiece& piece_at(double T) const {
     std::size_t i = 0;
@@ -184,6 +189,7 @@ struct IdealGasMixtureData {
     numerics::RootOptions options;
     options.relative_tolerance = kTolerance;
     options.max_iterations = kMaxIterations;
+    options.curvature = by_entropy ? curvature_s : curvature_h;
     const double guess = by_entropy ? hermite(target, c.s0, c.s1, c.t0, c.t1, c.dtds0, c.dtds1)
                                     : hermite(target, c.h0, c.h1, c.t0, c.t1, c.dtdh0, c.dtdh1);
     LogAnchor anchor{guess, 1.0 / guess, c.log_of(guess)};

@@ -14,6 +14,7 @@
 #include <limits>
 #include <optional>
 #include <string>
+#include <utility>
 
 #include <catch2/catch.hpp>
 
@@ -285,4 +286,36 @@ TEST_CASE("newton_from_start: empty where newton_root would bisect, meet a non-f
   // The exact root as the start is returned as it is.
   const auto line = [](double x) { return ValueAndSlope{2 * x - 1, 2.0}; };
   CHECK(numerics::newton_from_start(line, 0.5, 0.0, 1.0, {}) == std::optional<double>(0.5));
+}
+
+TEST_CASE("a curvature bound ends Newton's iteration once a step leaves x settled") {
+  // e^x = 10: f''/(2 f') = 1/2 everywhere. From 1e-5 below the root the first step lands within
+  // about 3e-10, the second within rounding; with the bound the third evaluation is not
+  // needed, since (1/2) s^2 of the second step (about 4e-20) is far below 2^-54 x.
+  int calls = 0;
+  const auto f = [&](double x) {
+    ++calls;
+    return ValueAndSlope{kExpFn.value(x), kExpFn.slope(x)};
+  };
+  RootOptions plain;
+  plain.relative_tolerance = 1e-12;
+  RootOptions bounded = plain;
+  bounded.curvature = 0.5;
+  const double start = kLn10 * (1 - 1e-5);  // from below: from above, rounding ends it on an unevaluated end
+  const std::optional<double> x_plain = numerics::newton_from_start(f, start, 1.0, 4.0, plain);
+  const int plain_calls = std::exchange(calls, 0);
+  const std::optional<double> x_bounded = numerics::newton_from_start(f, start, 1.0, 4.0, bounded);
+  REQUIRE(x_plain.has_value());
+  REQUIRE(x_bounded.has_value());
+  CHECK(calls < plain_calls);
+  // Within a last bit of the reference root, as the plain iteration is.
+  CHECK(std::fabs(*x_bounded - kLn10) <= std::nextafter(kLn10, 4.0) - kLn10);
+  CHECK(std::fabs(*x_plain - kLn10) <= std::nextafter(kLn10, 4.0) - kLn10);
+  // A bound that holds nowhere near (the step's error would not be below rounding) leaves
+  // the tolerance to decide: the same root and count as without it.
+  calls = 0;
+  RootOptions weak = plain;
+  weak.curvature = 1e30;
+  CHECK(numerics::newton_from_start(f, start, 1.0, 4.0, weak) == x_plain);
+  CHECK(calls == plain_calls);
 }

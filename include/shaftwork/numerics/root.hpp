@@ -41,6 +41,11 @@ struct RootOptions {
   double relative_tolerance = 1e-12;  // on the bracket width, relative to |x|
   std::uintmax_t max_iterations = 200;
   double absolute_tolerance = 0;  // on the bracket width, for roots at or near 0 (last: {rtol, budget} still reads)
+  // Newton's methods only: where known, a bound K on |f''| / (2 |f'|) over the bracket [1/x].
+  // A step s then leaves the next x within K s^2 of the root, and the iteration ends at once
+  // when that is below a quarter of the spacing of doubles at x (2^-54 |x|): another step
+  // could move x by rounding alone. 0: unknown, the tolerances alone decide.
+  double curvature = 0;
 };
 
 struct RootResult {

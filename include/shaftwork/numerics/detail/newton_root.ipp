@@ -43,14 +43,19 @@ NewtonEnd newton_iterate(F& f, double x, double low, double high, bool rising, b
       low_seen = true;
     }
     double next = x - here.value / here.slope;
+    bool newton_step = true;
     if (!(next > low && next < high)) {  // also catches NaN and inf
       if (!(low_seen && high_seen)) return NewtonEnd::left_bracket;
       next = 0.5 * (low + high);
+      newton_step = false;
     }
     const double step = std::fabs(next - x);
     x = next;
     const double tolerance = std::max(options.absolute_tolerance, options.relative_tolerance * std::fabs(x));
-    if (step <= tolerance || high - low <= tolerance) {
+    // RootOptions::curvature: a Newton step (not a bisection) that leaves x settled.
+    const bool settled = newton_step && options.curvature > 0 &&
+                         options.curvature * step * step <= 0x1p-54 * std::fabs(x);
+    if (step <= tolerance || high - low <= tolerance || settled) {
       result = {x, low, high, i};
       return NewtonEnd::converged;
     }
