@@ -20,7 +20,9 @@ namespace shaftwork::io {
 //   (atomic on POSIX file systems), so PATH holds the old content or the whole new one,
 //   never a part. An existing file keeps its permission bits, and its owner and group
 //   where the system lets us set them; a new file gets 0666 less the umask, as the
-//   shell's > would give it.
+//   shell's > would give it. So that commit() does not wait long, every 4 MiB written
+//   starts those bytes' way to disk and drops as many of the old file's bytes from the
+//   page cache (hints to the kernel; neither changes what either file holds).
 // - a symbolic link, or a chain of them: the same for the file it finally names, whose
 //   temporary file lies beside it; the link stays a link. A dangling link's target is created.
 // - a character or block device or a FIFO (/dev/null, a terminal, a named pipe): written
