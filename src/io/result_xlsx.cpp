@@ -1,5 +1,6 @@
 // Results as an Excel workbook through libxlsxwriter, in its constant-memory mode: each row
-// goes to a temporary file as it is written, and the workbook is zipped at the end.
+// goes to a temporary file as it is written, and the workbook is zipped at the end. The
+// library is opened by the first Workbook (xlsx_api.hpp).
 #include <stdlib.h>
 #include <unistd.h>
 
@@ -12,12 +13,12 @@
 
 #include <fmt/format.h>
 #include <fmt/ranges.h>
-#include <xlsxwriter.h>
 
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/result_keys.hpp"
 #include "shaftwork/io/result_writer.hpp"
 #include "workbook.hpp"
+#include "xlsx_api.hpp"
 
 namespace shaftwork::io {
 namespace {
@@ -30,7 +31,7 @@ constexpr std::size_t kCellTextLimit = 32767;
 constexpr std::string_view kLeading[] = {"id", "file", "status", "error", "machine", "fluid", "model", "solved_for"};
 
 Error workbook_error(const char* step, lxw_error e) {
-  return Error(ErrorKind::bad_input, fmt::format("cannot write the workbook ({}): {}", step, lxw_strerror(e)));
+  return Error(ErrorKind::bad_input, fmt::format("cannot write the workbook ({}): {}", step, xlsx_api().strerror(e)));
 }
 
 }  // namespace
@@ -58,21 +59,21 @@ Workbook::Workbook(std::size_t row_limit) : dir_(std::make_unique<TempDir>()), r
   lxw_workbook_options options{};
   options.constant_memory = LXW_TRUE;
   options.tmpdir = dir_->path.data();
-  workbook_ = workbook_new_opt((dir_->path + "/results.xlsx").c_str(), &options);
+  workbook_ = xlsx_api().workbook_new_opt((dir_->path + "/results.xlsx").c_str(), &options);
   if (workbook_ == nullptr) throw workbook_error("start", LXW_ERROR_CREATING_XLSX_FILE);
-  sheet_ = workbook_add_worksheet(workbook_, "results");
-  bold_ = workbook_add_format(workbook_);
-  format_set_bold(bold_);
+  sheet_ = xlsx_api().workbook_add_worksheet(workbook_, "results");
+  bold_ = xlsx_api().workbook_add_format(workbook_);
+  xlsx_api().format_set_bold(bold_);
 }
 
 void Workbook::add_sheet(const char* name) {
-  sheet_ = workbook_add_worksheet(workbook_, name);
+  sheet_ = xlsx_api().workbook_add_worksheet(workbook_, name);
   if (sheet_ == nullptr) throw workbook_error("a worksheet", LXW_ERROR_MEMORY_MALLOC_FAILED);
   row_ = 0;
 }
 
 Workbook::~Workbook() {
-  if (workbook_) lxw_workbook_free(workbook_);
+  if (workbook_) xlsx_api().workbook_free(workbook_);
 }
 
 void Workbook::begin_row() {
@@ -88,22 +89,23 @@ void Workbook::begin_row() {
 void Workbook::text(std::size_t col, std::string_view value, bool bold) {
   if (value.empty()) return;
   const std::string cell(value.substr(0, kCellTextLimit));
-  const lxw_error e = worksheet_write_string(sheet_, static_cast<lxw_row_t>(row_), static_cast<lxw_col_t>(col),
-                                             cell.c_str(), bold ? bold_ : nullptr);
+  const lxw_error e = xlsx_api().worksheet_write_string(sheet_, static_cast<lxw_row_t>(row_),
+                                                        static_cast<lxw_col_t>(col), cell.c_str(), bold ? bold_ : nullptr);
   if (e != LXW_NO_ERROR) throw workbook_error("a cell", e);
 }
 
 void Workbook::number(std::size_t col, double value) {
-  worksheet_write_number(sheet_, static_cast<lxw_row_t>(row_), static_cast<lxw_col_t>(col), value, nullptr);
+  xlsx_api().worksheet_write_number(sheet_, static_cast<lxw_row_t>(row_), static_cast<lxw_col_t>(col), value,
+                                    nullptr);
 }
 
-void Workbook::freeze_header() { worksheet_freeze_panes(sheet_, 2, 1); }
+void Workbook::freeze_header() { xlsx_api().worksheet_freeze_panes(sheet_, 2, 1); }
 
 void Workbook::finish(ByteSink& out) {
   if (overflowed_ || workbook_ == nullptr) return;
   lxw_workbook* done = workbook_;
   workbook_ = nullptr;
-  if (const lxw_error e = workbook_close(done); e != LXW_NO_ERROR) throw workbook_error("close", e);
+  if (const lxw_error e = xlsx_api().workbook_close(done); e != LXW_NO_ERROR) throw workbook_error("close", e);
   FdSource in = FdSource::open(dir_->path + "/results.xlsx");
   char buffer[65536];
   for (std::size_t n; (n = in.read(buffer, sizeof buffer)) > 0;) out.write(std::string_view(buffer, n));
