@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 
 #include "shaftwork/io/timestamp.hpp"
+#include "cairo_api.hpp"
 
 namespace shaftwork::charts {
 
@@ -78,9 +79,9 @@ std::vector<Tick> time_ticks(double low, double high, int target) {
 }
 
 void clip_to(cairo_t* cr, const Rect& area) {
-  cairo_save(cr);
-  cairo_rectangle(cr, area.x, area.y, area.width, area.height);
-  cairo_clip(cr);
+  cairo_api().save(cr);
+  cairo_api().rectangle(cr, area.x, area.y, area.width, area.height);
+  cairo_api().clip(cr);
 }
 
 void draw_axes(cairo_t* cr, const Axes& axes, const std::string& x_title, const std::string& y_title,

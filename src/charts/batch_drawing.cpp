@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 
 #include "shaftwork/charts/batch_chart.hpp"
+#include "cairo_api.hpp"
 
 namespace shaftwork::charts {
 namespace {
@@ -74,12 +75,13 @@ void fill_band(cairo_t* cr, const BatchChartData& data, const Axes& axes, const 
   std::vector<Point> upper, lower;
   const auto fill = [&] {
     if (!upper.empty()) {
-      cairo_new_path(cr);
-      for (const Point& p : upper) cairo_line_to(cr, axes.page_x(p.x), axes.page_y(p.y));
-      for (auto p = lower.rbegin(); p != lower.rend(); ++p) cairo_line_to(cr, axes.page_x(p->x), axes.page_y(p->y));
-      cairo_close_path(cr);
-      cairo_set_source_rgba(cr, style.colour.r / 255.0, style.colour.g / 255.0, style.colour.b / 255.0, 0.2);
-      cairo_fill(cr);
+      const CairoApi& cairo = cairo_api();
+      cairo.new_path(cr);
+      for (const Point& p : upper) cairo.line_to(cr, axes.page_x(p.x), axes.page_y(p.y));
+      for (auto p = lower.rbegin(); p != lower.rend(); ++p) cairo.line_to(cr, axes.page_x(p->x), axes.page_y(p->y));
+      cairo.close_path(cr);
+      cairo.set_source_rgba(cr, style.colour.r / 255.0, style.colour.g / 255.0, style.colour.b / 255.0, 0.2);
+      cairo.fill(cr);
     }
     upper.clear();
     lower.clear();
@@ -103,7 +105,7 @@ void draw_series(cairo_t* cr, const BatchChartData& data, const Axes& axes, cons
   for (const std::vector<Point>& run : runs_of(data, style.series)) {
     stroke_line(cr, axes.page(run), style.colour, marked(data) ? 1.2 : 0.9);
   }
-  cairo_restore(cr);
+  cairo_api().restore(cr);
   if (!marked(data)) return;
   for (const std::vector<Point>& run : runs_of(data, style.series)) {
     for (const Point& p : run) draw_mark(cr, axes.page(p), style.mark, style.colour, 8);

@@ -9,6 +9,7 @@
 #include <fmt/format.h>
 
 #include "shaftwork/error.hpp"
+#include "cairo_api.hpp"
 
 namespace shaftwork::charts {
 
@@ -34,6 +35,8 @@ const char* extension_of(ImageFormat format) {
   return ".pdf";
 }
 
+void load_cairo() { cairo_api(); }
+
 cairo_status_t Document::write_bytes(void* closure, const unsigned char* data, unsigned int length) {
   auto* self = static_cast<Document*>(closure);
   if (self->sink_error_) return CAIRO_STATUS_WRITE_ERROR;
@@ -50,33 +53,34 @@ Document::Document(ImageFormat format, io::ByteSink& sink, double width, double 
     : format_(format), sink_(sink), width_(width), height_(height) {
   switch (format) {
     case ImageFormat::svg:
-      surface_ = cairo_svg_surface_create_for_stream(&Document::write_bytes, this, width, height);
-      cairo_svg_surface_set_document_unit(surface_, CAIRO_SVG_UNIT_PT);
+      surface_ = cairo_api().svg_surface_create_for_stream(&Document::write_bytes, this, width, height);
+      cairo_api().svg_surface_set_document_unit(surface_, CAIRO_SVG_UNIT_PT);
       break;
     case ImageFormat::pdf:
-      surface_ = cairo_pdf_surface_create_for_stream(&Document::write_bytes, this, width, height);
-      cairo_pdf_surface_set_metadata(surface_, CAIRO_PDF_METADATA_CREATOR, "shaftwork");
+      surface_ = cairo_api().pdf_surface_create_for_stream(&Document::write_bytes, this, width, height);
+      cairo_api().pdf_surface_set_metadata(surface_, CAIRO_PDF_METADATA_CREATOR, "shaftwork");
       break;
     case ImageFormat::png:
-      surface_ = cairo_image_surface_create(CAIRO_FORMAT_RGB24, static_cast<int>(std::lround(width * kPngPixelsPerPoint)),
-                                            static_cast<int>(std::lround(height * kPngPixelsPerPoint)));
+      surface_ = cairo_api().image_surface_create(CAIRO_FORMAT_RGB24,
+                                                  static_cast<int>(std::lround(width * kPngPixelsPerPoint)),
+                                                  static_cast<int>(std::lround(height * kPngPixelsPerPoint)));
       break;
   }
-  cr_ = cairo_create(surface_);
+  cr_ = cairo_api().create(surface_);
   check("cannot start a picture");
 }
 
 Document::~Document() {
-  cairo_destroy(cr_);
-  cairo_surface_destroy(surface_);
+  cairo_api().destroy(cr_);
+  cairo_api().surface_destroy(surface_);
 }
 
 void Document::check(const char* step) {
   if (sink_error_) std::rethrow_exception(sink_error_);
-  cairo_status_t status = cairo_surface_status(surface_);
-  if (status == CAIRO_STATUS_SUCCESS) status = cairo_status(cr_);
+  cairo_status_t status = cairo_api().surface_status(surface_);
+  if (status == CAIRO_STATUS_SUCCESS) status = cairo_api().status(cr_);
   if (status != CAIRO_STATUS_SUCCESS) {
-    throw Error(ErrorKind::bad_input, fmt::format("{}: {}", step, cairo_status_to_string(status)));
+    throw Error(ErrorKind::bad_input, fmt::format("{}: {}", step, cairo_api().status_to_string(status)));
   }
 }
 
@@ -85,25 +89,26 @@ cairo_t* Document::begin_page() {
     throw Error(ErrorKind::bad_input, "an SVG or PNG picture holds one page; write several pages as .pdf");
   }
   ++pages_;
-  cairo_save(cr_);
-  if (format_ == ImageFormat::png) cairo_scale(cr_, kPngPixelsPerPoint, kPngPixelsPerPoint);
-  cairo_set_source_rgb(cr_, 1, 1, 1);
-  cairo_rectangle(cr_, 0, 0, width_, height_);
-  cairo_fill(cr_);
+  cairo_api().save(cr_);
+  if (format_ == ImageFormat::png) cairo_api().scale(cr_, kPngPixelsPerPoint, kPngPixelsPerPoint);
+  cairo_api().set_source_rgb(cr_, 1, 1, 1);
+  cairo_api().rectangle(cr_, 0, 0, width_, height_);
+  cairo_api().fill(cr_);
   return cr_;
 }
 
 void Document::end_page() {
-  cairo_restore(cr_);
+  cairo_api().restore(cr_);
   if (format_ == ImageFormat::png) {
-    cairo_surface_flush(surface_);
-    const cairo_status_t status = cairo_surface_write_to_png_stream(surface_, &Document::write_bytes, this);
+    cairo_api().surface_flush(surface_);
+    const cairo_status_t status = cairo_api().surface_write_to_png_stream(surface_, &Document::write_bytes, this);
     if (sink_error_) std::rethrow_exception(sink_error_);
     if (status != CAIRO_STATUS_SUCCESS) {
-      throw Error(ErrorKind::bad_input, fmt::format("cannot write the PNG: {}", cairo_status_to_string(status)));
+      throw Error(ErrorKind::bad_input,
+                  fmt::format("cannot write the PNG: {}", cairo_api().status_to_string(status)));
     }
   } else {
-    cairo_show_page(cr_);
+    cairo_api().show_page(cr_);
   }
   check("cannot draw the page");
 }
@@ -111,7 +116,7 @@ void Document::end_page() {
 void Document::finish() {
   if (finished_) return;
   finished_ = true;
-  cairo_surface_finish(surface_);
+  cairo_api().surface_finish(surface_);
   check("cannot write the picture");
 }
 

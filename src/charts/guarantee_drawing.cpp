@@ -3,6 +3,7 @@
 #include <algorithm>
 
 #include "shaftwork/charts/guarantee_chart.hpp"
+#include "cairo_api.hpp"
 
 namespace shaftwork::charts {
 namespace {
@@ -53,7 +54,7 @@ void draw_lines(cairo_t* cr, const GuaranteeChart& chart, const GuaranteePanel& 
   }
   stroke_line(cr, axes.page(p.curve), kInletColour, 1.8);
   draw_bars(cr, chart, p, axes, first);
-  cairo_restore(cr);
+  cairo_api().restore(cr);
 }
 
 // A value read on the curve: the verdict's mark and its word below it, to the right (to the
@@ -94,11 +95,11 @@ void draw_panel(cairo_t* cr, const GuaranteeChart& chart, const GuaranteePanel& 
 double draw_banner(cairo_t* cr, const GuaranteeChart& chart, double x, double y) {
   static const char* const kText[] = {"PASS \u2713  guarantee met", "INCONCLUSIVE ?  within U",
                                       "FAIL \u2717  guarantee not met"};
-  cairo_save(cr);
+  cairo_api().save(cr);
   set_colour(cr, verdict_colour(chart.verdict));
-  cairo_rectangle(cr, x, y, kLegendWidth - 8, 24);
-  cairo_fill(cr);
-  cairo_restore(cr);
+  cairo_api().rectangle(cr, x, y, kLegendWidth - 8, 24);
+  cairo_api().fill(cr);
+  cairo_api().restore(cr);
   const Colour text = chart.verdict == machines::Verdict::inconclusive ? kInk : Colour{0xff, 0xff, 0xff};
   draw_text(cr, {x + 8, y + 16.5}, kText[static_cast<int>(chart.verdict)], 11, Align::left, true, text);
   return y + 40;

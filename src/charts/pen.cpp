@@ -2,27 +2,29 @@
 
 #include <cmath>
 
+#include "cairo_api.hpp"
+
 namespace shaftwork::charts {
 
-void set_colour(cairo_t* cr, Colour c) { cairo_set_source_rgb(cr, c.r / 255.0, c.g / 255.0, c.b / 255.0); }
+void set_colour(cairo_t* cr, Colour c) { cairo_api().set_source_rgb(cr, c.r / 255.0, c.g / 255.0, c.b / 255.0); }
 
 void stroke_line(cairo_t* cr, const std::vector<Point>& points, Colour c, double width, Dash dash) {
   if (points.size() < 2) return;
-  cairo_save(cr);
+  cairo_api().save(cr);
   set_colour(cr, c);
-  cairo_set_line_width(cr, width);
-  cairo_set_line_join(cr, CAIRO_LINE_JOIN_ROUND);
+  cairo_api().set_line_width(cr, width);
+  cairo_api().set_line_join(cr, CAIRO_LINE_JOIN_ROUND);
   const double dashed[] = {6 * width / 1.5 + 2, 3 * width / 1.5 + 1.5};
   const double dotted[] = {0.1, 2.2 * width + 1};
-  if (dash == Dash::dashed) cairo_set_dash(cr, dashed, 2, 0);
+  if (dash == Dash::dashed) cairo_api().set_dash(cr, dashed, 2, 0);
   if (dash == Dash::dotted) {
-    cairo_set_line_cap(cr, CAIRO_LINE_CAP_ROUND);
-    cairo_set_dash(cr, dotted, 2, 0);
+    cairo_api().set_line_cap(cr, CAIRO_LINE_CAP_ROUND);
+    cairo_api().set_dash(cr, dotted, 2, 0);
   }
-  cairo_move_to(cr, points[0].x, points[0].y);
-  for (std::size_t i = 1; i < points.size(); ++i) cairo_line_to(cr, points[i].x, points[i].y);
-  cairo_stroke(cr);
-  cairo_restore(cr);
+  cairo_api().move_to(cr, points[0].x, points[0].y);
+  for (std::size_t i = 1; i < points.size(); ++i) cairo_api().line_to(cr, points[i].x, points[i].y);
+  cairo_api().stroke(cr);
+  cairo_api().restore(cr);
 }
 
 namespace {
@@ -32,28 +34,28 @@ void cross_path(cairo_t* cr, Point at, double r) {
   const double a = 1.45 * r / std::sqrt(2.0), w = 0.35 * r * std::sqrt(2.0);  // arm end, half-width along an axis
   const double xs[] = {0, a - w, a, w, a, a - w, 0, -(a - w), -a, -w, -a, -(a - w)};
   const double ys[] = {-w, -a, -(a - w), 0, a - w, a, w, a, a - w, 0, -(a - w), -a};
-  cairo_move_to(cr, at.x + xs[0], at.y + ys[0]);
-  for (int i = 1; i < 12; ++i) cairo_line_to(cr, at.x + xs[i], at.y + ys[i]);
-  cairo_close_path(cr);
+  cairo_api().move_to(cr, at.x + xs[0], at.y + ys[0]);
+  for (int i = 1; i < 12; ++i) cairo_api().line_to(cr, at.x + xs[i], at.y + ys[i]);
+  cairo_api().close_path(cr);
 }
 
 void mark_path(cairo_t* cr, Point at, Mark mark, double r) {
-  cairo_new_path(cr);
+  cairo_api().new_path(cr);
   switch (mark) {
-    case Mark::circle: cairo_arc(cr, at.x, at.y, r, 0, 2 * M_PI); break;
-    case Mark::square: cairo_rectangle(cr, at.x - 0.85 * r, at.y - 0.85 * r, 1.7 * r, 1.7 * r); break;
+    case Mark::circle: cairo_api().arc(cr, at.x, at.y, r, 0, 2 * M_PI); break;
+    case Mark::square: cairo_api().rectangle(cr, at.x - 0.85 * r, at.y - 0.85 * r, 1.7 * r, 1.7 * r); break;
     case Mark::diamond:
-      cairo_move_to(cr, at.x, at.y - 1.2 * r);
-      cairo_line_to(cr, at.x + 1.2 * r, at.y);
-      cairo_line_to(cr, at.x, at.y + 1.2 * r);
-      cairo_line_to(cr, at.x - 1.2 * r, at.y);
-      cairo_close_path(cr);
+      cairo_api().move_to(cr, at.x, at.y - 1.2 * r);
+      cairo_api().line_to(cr, at.x + 1.2 * r, at.y);
+      cairo_api().line_to(cr, at.x, at.y + 1.2 * r);
+      cairo_api().line_to(cr, at.x - 1.2 * r, at.y);
+      cairo_api().close_path(cr);
       break;
     case Mark::triangle:
-      cairo_move_to(cr, at.x, at.y - 1.15 * r);
-      cairo_line_to(cr, at.x + r, at.y + 0.7 * r);
-      cairo_line_to(cr, at.x - r, at.y + 0.7 * r);
-      cairo_close_path(cr);
+      cairo_api().move_to(cr, at.x, at.y - 1.15 * r);
+      cairo_api().line_to(cr, at.x + r, at.y + 0.7 * r);
+      cairo_api().line_to(cr, at.x - r, at.y + 0.7 * r);
+      cairo_api().close_path(cr);
       break;
     case Mark::cross: cross_path(cr, at, r); break;
   }
@@ -62,42 +64,42 @@ void mark_path(cairo_t* cr, Point at, Mark mark, double r) {
 }  // namespace
 
 void draw_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size) {
-  cairo_save(cr);
+  cairo_api().save(cr);
   mark_path(cr, at, mark, size / 2);
   set_colour(cr, c);
-  cairo_fill_preserve(cr);
-  cairo_set_source_rgb(cr, 1, 1, 1);
-  cairo_set_line_width(cr, 1.2);
-  cairo_stroke(cr);
-  cairo_restore(cr);
+  cairo_api().fill_preserve(cr);
+  cairo_api().set_source_rgb(cr, 1, 1, 1);
+  cairo_api().set_line_width(cr, 1.2);
+  cairo_api().stroke(cr);
+  cairo_api().restore(cr);
 }
 
 void draw_open_mark(cairo_t* cr, Point at, Mark mark, Colour c, double size, double width) {
-  cairo_save(cr);
+  cairo_api().save(cr);
   mark_path(cr, at, mark, size / 2);
   set_colour(cr, c);
-  cairo_set_line_width(cr, width);
-  cairo_set_line_join(cr, CAIRO_LINE_JOIN_MITER);
-  cairo_stroke(cr);
-  cairo_restore(cr);
+  cairo_api().set_line_width(cr, width);
+  cairo_api().set_line_join(cr, CAIRO_LINE_JOIN_MITER);
+  cairo_api().stroke(cr);
+  cairo_api().restore(cr);
 }
 
 namespace {
 
 void select_font(cairo_t* cr, double size, bool bold, bool mono) {
-  cairo_select_font_face(cr, mono ? "DejaVu Sans Mono" : "DejaVu Sans", CAIRO_FONT_SLANT_NORMAL,
+  cairo_api().select_font_face(cr, mono ? "DejaVu Sans Mono" : "DejaVu Sans", CAIRO_FONT_SLANT_NORMAL,
                          bold ? CAIRO_FONT_WEIGHT_BOLD : CAIRO_FONT_WEIGHT_NORMAL);
-  cairo_set_font_size(cr, size);
+  cairo_api().set_font_size(cr, size);
 }
 
 }  // namespace
 
 double text_width(cairo_t* cr, const std::string& text, double size, bool bold, bool mono) {
-  cairo_save(cr);
+  cairo_api().save(cr);
   select_font(cr, size, bold, mono);
   cairo_text_extents_t extents;
-  cairo_text_extents(cr, text.c_str(), &extents);
-  cairo_restore(cr);
+  cairo_api().text_extents(cr, text.c_str(), &extents);
+  cairo_api().restore(cr);
   return extents.x_advance;
 }
 
@@ -150,35 +152,35 @@ FittedText fit_text(cairo_t* cr, const std::string& text, double size, double sm
 }
 
 void draw_mono_text(cairo_t* cr, Point at, const std::string& text, double size) {
-  cairo_save(cr);
+  cairo_api().save(cr);
   select_font(cr, size, false, true);
   set_colour(cr, kInk);
-  cairo_move_to(cr, at.x, at.y);
-  cairo_show_text(cr, text.c_str());
-  cairo_restore(cr);
+  cairo_api().move_to(cr, at.x, at.y);
+  cairo_api().show_text(cr, text.c_str());
+  cairo_api().restore(cr);
 }
 
 double draw_text(cairo_t* cr, Point at, const std::string& text, double size, Align align, bool bold, Colour c) {
-  cairo_save(cr);
+  cairo_api().save(cr);
   select_font(cr, size, bold, false);
   cairo_text_extents_t extents;
-  cairo_text_extents(cr, text.c_str(), &extents);
+  cairo_api().text_extents(cr, text.c_str(), &extents);
   double x = at.x;
   if (align == Align::centre) x -= extents.x_advance / 2;
   if (align == Align::right) x -= extents.x_advance;
   set_colour(cr, c);
-  cairo_move_to(cr, x, at.y);
-  cairo_show_text(cr, text.c_str());
-  cairo_restore(cr);
+  cairo_api().move_to(cr, x, at.y);
+  cairo_api().show_text(cr, text.c_str());
+  cairo_api().restore(cr);
   return extents.x_advance;
 }
 
 void draw_vertical_text(cairo_t* cr, Point at, const std::string& text, double size) {
-  cairo_save(cr);
-  cairo_translate(cr, at.x, at.y);
-  cairo_rotate(cr, -M_PI / 2);
+  cairo_api().save(cr);
+  cairo_api().translate(cr, at.x, at.y);
+  cairo_api().rotate(cr, -M_PI / 2);
   draw_text(cr, {0, 0}, text, size, Align::centre);
-  cairo_restore(cr);
+  cairo_api().restore(cr);
 }
 
 double legend_row(cairo_t* cr, double x, double y, const std::string& text, Colour c, Dash dash, double width,

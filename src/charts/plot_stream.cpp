@@ -164,6 +164,7 @@ std::string case_file_name(const std::string& path, const std::string& id) {
 
 std::unique_ptr<io::ResultStream> make_plot_stream(const std::string& path, const ProcessChartOptions& options) {
   const ImageFormat format = image_format_of(path);
+  load_cairo();  // the first chart may come late: a missing Cairo costs no rating
   if (format == ImageFormat::pdf) return std::make_unique<PdfPlots>(path, options);
   return std::make_unique<FilePlots>(path, format, options);
 }

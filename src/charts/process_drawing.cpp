@@ -2,6 +2,7 @@
 #include <algorithm>
 
 #include "shaftwork/charts/process_chart.hpp"
+#include "cairo_api.hpp"
 
 namespace shaftwork::charts {
 namespace {
@@ -49,7 +50,7 @@ void draw_plot(cairo_t* cr, const ProcessChart& chart, const Axes& axes) {
   draw_isobars(cr, chart, axes);
   stroke_line(cr, {axes.page(chart.inlet), axes.page(chart.outlet_isentropic)}, kIsentropicColour, 1.2, Dash::dashed);
   stroke_line(cr, axes.page(chart.path.points), kPathColour, 2.4);
-  cairo_restore(cr);
+  cairo_api().restore(cr);
   // Marks last, on top of every line: the isentropic outlet, the outlet, then the inlet.
   draw_mark(cr, axes.page(chart.outlet_isentropic), Mark::diamond, kIsentropicColour, 10);
   draw_mark(cr, axes.page(chart.outlet), Mark::square, kOutletColour, 10);

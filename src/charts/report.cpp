@@ -11,6 +11,7 @@
 #include "shaftwork/charts/guarantee_chart.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/atomic_file.hpp"
+#include "cairo_api.hpp"
 
 namespace shaftwork::charts {
 namespace {
@@ -204,11 +205,11 @@ void draw_chart(cairo_t* cr, const io::CaseOutcome& o, const ReportOptions& opti
   const ReportChartPlace place = report_chart_place();
   try {
     const ProcessChart chart = make_process_chart(o, options.chart);
-    cairo_save(cr);
-    cairo_translate(cr, place.x, place.y);
-    cairo_scale(cr, place.scale, place.scale);
+    cairo_api().save(cr);
+    cairo_api().translate(cr, place.x, place.y);
+    cairo_api().scale(cr, place.scale, place.scale);
     draw_process_chart(cr, chart, kChartPage);
-    cairo_restore(cr);
+    cairo_api().restore(cr);
   } catch (const Error& e) {
     draw_text(cr, {kBody.x, place.y + 20}, fmt::format("No chart: {}", e.what()).substr(0, 120), 8, Align::left, false,
               kOutletColour);
@@ -230,11 +231,11 @@ void draw_guarantee_page(cairo_t* cr, const GuaranteePage& page) {
   const double bottom = page.chart ? place.y : kBody.y + kBody.height - kFooterHeight - 8;
   draw_middle(cr, page.middle, kBody.y + kTopOfMiddle - 60, bottom);
   if (page.chart) {
-    cairo_save(cr);
-    cairo_translate(cr, place.x, place.y);
-    cairo_scale(cr, place.scale, place.scale);
+    cairo_api().save(cr);
+    cairo_api().translate(cr, place.x, place.y);
+    cairo_api().scale(cr, place.scale, place.scale);
     draw_guarantee_chart(cr, *page.chart, kChartPage);
-    cairo_restore(cr);
+    cairo_api().restore(cr);
   }
   draw_footer(cr, page.sources);
 }

@@ -3,7 +3,8 @@
 // One drawing code serves the three formats: a chart draws on a cairo_t in points
 // (1/72 in), and the Document behind it is a Cairo surface of the format the file name
 // asks for. Bytes go to an io::ByteSink (io::OutputFile for a file: whole or not at all).
-// SVG and PNG hold one page; PDF holds any number.
+// SVG and PNG hold one page; PDF holds any number. Cairo is opened by the first Document
+// (or load_cairo), not when the program starts (src/charts/cairo_api.hpp).
 #pragma once
 
 #include <exception>
@@ -23,6 +24,11 @@ ImageFormat image_format_of(const std::string& path);
 // ".svg", ".png" or ".pdf".
 const char* extension_of(ImageFormat format);
 
+// Opens Cairo now, as the first Document would, for a command that checks what it needs
+// before its work. Throws not_available naming libcairo.so.2 and its Debian package,
+// libcairo2, when it cannot be loaded.
+void load_cairo();
+
 // A rectangle on a page, in points from the top left corner.
 struct Rect {
   double x = 0, y = 0, width = 0, height = 0;
@@ -38,6 +44,7 @@ inline constexpr double kPngPixelsPerPoint = 1.5;
 class Document {
  public:
   // Pages of `width` x `height` points, written to `sink` (which must outlive the document).
+  // Throws as load_cairo does when Cairo cannot be loaded.
   Document(ImageFormat format, io::ByteSink& sink, double width, double height);
   Document(const Document&) = delete;
   Document& operator=(const Document&) = delete;
