@@ -13,6 +13,7 @@
 #include "commands.hpp"
 #include "progress_line.hpp"
 #include "shaftwork/charts/batch_chart.hpp"
+#include "shaftwork/charts/document.hpp"
 #include "shaftwork/error.hpp"
 #include "shaftwork/io/atomic_file.hpp"
 #include "shaftwork/io/batch.hpp"
@@ -73,7 +74,10 @@ int run_batch(const BatchCommandOptions& options) {
     for (const std::string& out : {options.output, options.plot}) {
       if (!out.empty()) io::refuse_output_among_inputs(out, inputs);
     }
-    if (!options.plot.empty()) charts::image_format_of(options.plot);  // a bad name costs no rating
+    if (!options.plot.empty()) {  // a bad name, or no Cairo to draw with, costs no rating
+      charts::image_format_of(options.plot);
+      charts::load_cairo();
+    }
     io::FluidFactory fluids;
     for (const auto& path : options.species_files) fluids.add_species_file(path);
     const auto document = io::parse_json_strict(io::read_text_file(options.template_file), options.template_file);

@@ -174,7 +174,13 @@ int run_rate(const RateOptions& options) {
   InputTexts texts;
   if (options.format == "csv" || options.format == "xlsx") choose_csv_columns(options.files, texts, fluids, table);
   io::SinkStream out(file ? static_cast<io::ByteSink&>(*file) : io::standard_output());
-  const auto results = io::make_result_stream(result_format(options.format), out, table);
+  std::unique_ptr<io::ResultStream> results;
+  try {
+    results = io::make_result_stream(result_format(options.format), out, table);  // a workbook opens its library
+  } catch (const Error& e) {
+    std::cerr << "error: " << e.what() << '\n';
+    return kExitUnusable;
+  }
   ResultTee tee(*results, std::move(pictures));
   RunState state;
   try {
