@@ -1,10 +1,11 @@
 // shaftwork/io/shared_library.hpp — a shared library opened when it is first needed.
 //
-// Cairo (pictures) and libxlsxwriter (workbooks) are not linked into the program: together
-// they pull in some 25 libraries (X11, fontconfig, freetype, libcrypto, ...) whose loading
-// more than doubled the start of every run, though most runs draw nothing and write no
-// workbook. Each is opened by its soname at its first use and its functions taken by name
-// into a table of pointers (charts/cairo_api.hpp, io's xlsx_api.hpp; DEVELOPERS.md).
+// Cairo (pictures) and libxlsxwriter (workbooks) are not linked into the program: with the
+// 20 libraries they pull in (X11, fontconfig, freetype, libcrypto, ...) their loading
+// tripled the CPU time of a short run (docs/performance.md), though most runs draw nothing
+// and write no workbook. Each is opened by its soname at its first use and its functions
+// taken by name into a table of pointers (src/charts/cairo_api.hpp, src/io/xlsx_api.hpp;
+// DEVELOPERS.md).
 #pragma once
 
 #include <string>
