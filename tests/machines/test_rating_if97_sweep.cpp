@@ -19,8 +19,8 @@
 // SHAFTWORK_RANDOM_SEED (default 20261209). Last long run, by hand (2026-12-02):
 // SHAFTWORK_IF97_SWEEP=2000 SHAFTWORK_RANDOM_SEED=7, 0 of 36,000 solvable pairs refused,
 // worst round trip 2.2e-8, eta_p against the reference within 2.2e-9 of the enthalpy change
-// (a 2,000-point run at seed 13 took more than 31 minutes of CPU, so a 10,000-point run
-// takes hours).
+// (a 2,000-point run at seed 13, after the path fix of 5a1cb13, was stopped unfinished after
+// 72 minutes of CPU, so a 10,000-point run takes many hours).
 #include <array>
 #include <cmath>
 #include <cstdint>
