@@ -283,12 +283,26 @@ bool RowRater::apply_uncertainties(std::size_t line) {
 // Inline and without calls: every cell of a batch comes here first.
 inline bool RowRater::apply_plain(const InputColumn& c, std::string_view cell) {
   double x = 0;
-  if (!parse_plain_decimal(cell, x)) return false;
-  const double si = (c.scale * x + c.offset + (c.gauge ? barometer_ : 0.0)) * c.factor + 0.0;  // as apply()
-  if (!c.plain.contains(si) || (c.vacuum && x < 0) || !c.field) return false;
-  if (plan_.uncertainty) readings_[static_cast<std::size_t>(c.input)] = std::fabs(c.scale * x) * c.factor;
-  input_.*c.field = si;
+  if (!parse_plain_decimal(cell, x) || !c.field) return false;
+  const double si = in_unit_si(c, x) * c.factor + 0.0;  // as apply()
+  if (!c.plain.contains(si) || (c.vacuum && x < 0)) return false;
+  set_value(c, x, si);
   return true;
+}
+
+// The cell's value x in SI of the column's unit (a head in m: a length), before the factor.
+inline double RowRater::in_unit_si(const InputColumn& c, double x) const {
+  return c.scale * x + c.offset + (c.gauge ? barometer_ : 0.0);
+}
+
+// An accepted value into the rating input (or the row's barometer), and its reading.
+inline void RowRater::set_value(const InputColumn& c, double x, double si) {
+  if (plan_.uncertainty) readings_[static_cast<std::size_t>(c.input)] = std::fabs(c.scale * x) * c.factor;
+  if (c.field) {
+    input_.*c.field = si;
+  } else {
+    barometer_ = si;
+  }
 }
 
 bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t line) {
@@ -302,20 +316,15 @@ bool RowRater::apply(const InputColumn& c, std::string_view raw, std::size_t lin
       return false;
     }
   }
-  const double in_unit_si = c.scale * x + c.offset + (c.gauge ? barometer_ : 0.0);
-  if (plan_.uncertainty) readings_[static_cast<std::size_t>(c.input)] = std::fabs(c.scale * x) * c.factor;
-  const double si = in_unit_si * c.factor + 0.0;  // as units::parse: no -0.0
+  const double unit_si = in_unit_si(c, x);
+  const double si = unit_si * c.factor + 0.0;  // as units::parse: no -0.0
   if (!c.plain.contains(si) || (c.vacuum && x < 0)) {
-    if (const std::string problem = value_problem(c, cell, x, in_unit_si, si); !problem.empty()) {
+    if (const std::string problem = value_problem(c, cell, x, unit_si, si); !problem.empty()) {
       error_ = fmt::format("line {}, column \"{}\": {}", line, c.header, problem);
       return false;
     }
   }
-  if (c.field) {
-    input_.*c.field = si;
-  } else {
-    barometer_ = si;
-  }
+  set_value(c, x, si);
   return true;
 }
 

@@ -71,6 +71,8 @@ class RowRater {
   BatchPoint point_of(bool rated, std::size_t row) const;
   bool apply_cells(std::size_t line);
   bool apply_plain(const InputColumn& c, std::string_view cell);
+  double in_unit_si(const InputColumn& c, double x) const;
+  void set_value(const InputColumn& c, double x, double si);
   bool apply(const InputColumn& c, std::string_view raw, std::size_t line);
   void refuse_cell(const InputColumn& c, std::string_view cell, std::string_view problem, std::size_t line);
   bool apply_uncertainties(std::size_t line);

@@ -58,7 +58,6 @@ constexpr PlainRange plainly_acceptable_range(machines::Input input) {
   }
   return {kLeast, std::numeric_limits<double>::max()};
 }
-inline bool plainly_acceptable(machines::Input input, double si) { return plainly_acceptable_range(input).contains(si); }
 
 // The warning of a case that gives a gauge pressure but no site barometer.
 inline constexpr std::string_view kDefaultBarometerWarning =
